@@ -1,0 +1,98 @@
+/**
+ * Torquewright engine computation. Inputs in mm, cc, degrees and rpm; see README.md.
+ */
+export {
+  MM_PER_IN,
+  M_PER_FT,
+  CC_PER_CI,
+  KG_PER_LB,
+  STANDARD_GRAVITY,
+  N_PER_LBF,
+  NM_PER_LBFT,
+  W_PER_HP,
+  KW_PER_HP,
+  KPA_PER_INHG,
+  inToMm,
+  mmToIn,
+  ccToCi,
+  ciToCc,
+  nmToLbFt,
+  lbFtToNm,
+  kwToHp,
+  hpToKw,
+  msToFtMin,
+  ftMinToMs,
+  cToF,
+  fToC,
+  inHgToKPa,
+} from "./units";
+export { CalcInputError, type FieldError, type ErrorResult } from "./errors";
+export {
+  sweptVolumeCc,
+  displacementCc,
+  clearanceVolumeCc,
+  staticCompressionRatio,
+  pistonPositionMm,
+  pistonSpeedMs,
+  meanPistonSpeedMs,
+  peakPistonSpeedMs,
+  peakPistonSpeedCrankDeg,
+  dynamicCompressionRatio,
+  DCR_NOTE,
+  quenchMm,
+  rodRatio,
+  boreStrokeRatio,
+  type StaticInputs,
+  type DynamicInputs,
+} from "./geometry";
+export {
+  powerKw,
+  powerHp,
+  HP_TORQUE_CONSTANT,
+  KW_TORQUE_CONSTANT,
+  sae1349Factor,
+  SAE_J1349_REVISION,
+  SAE_J1349_REFERENCE,
+  vaporPressureKPa,
+  VAPOR_PRESSURE_FORMULA,
+  dryAirPressureKPa,
+  type DynoAir,
+} from "./power";
+export {
+  DEFAULT_THRESHOLDS,
+  DEFAULT_THRESHOLD_VALUES,
+  THRESHOLD_KEYS,
+  type Thresholds,
+  type ThresholdKey,
+  type ThresholdDefault,
+  type SourceBasis,
+} from "./thresholds";
+export {
+  validateSpec,
+  SPEC_FIELDS,
+  DEFAULT_CYLINDERS,
+  type SpecField,
+  type SpecInput,
+  type CheckedSpec,
+  type ValidSpec,
+} from "./validate";
+export {
+  computeSpec,
+  RESULT_INPUTS,
+  SAFETY_NOTE,
+  type SpecResults,
+  type ResultKey,
+  type Caution,
+  type CautionCode,
+  type Step,
+  type SpecOk,
+  type SpecOutcome,
+} from "./spec";
+export {
+  solveDomeCcForRatio,
+  solveGasketThicknessForRatio,
+  solveChamberCcForRatio,
+  type SolveInput,
+  type SolveOk,
+  type SolveResult,
+} from "./solvers";

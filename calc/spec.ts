@@ -1,0 +1,488 @@
+/**
+ * computeSpec: every figure of one engine package at once, with cautions and the work
+ * shown step by step.
+ */
+import type { ErrorResult } from "./errors";
+import { fmt } from "./format";
+import {
+  cylinderCcRaw,
+  peakSpeedAngleRaw,
+  pistonPositionRaw,
+  pistonVelocityRaw,
+} from "./geometry";
+import type { Thresholds } from "./thresholds";
+import { CC_PER_CI, mmToIn, msToFtMin } from "./units";
+import { CLEARANCE_FIELDS, validateSpec, type SpecField, type SpecInput } from "./validate";
+
+export interface SpecResults {
+  /** Engine displacement, cc. */
+  displacementCc: number | null;
+  /** Engine displacement, cubic inches. */
+  displacementCi: number | null;
+  /** Swept volume of one cylinder, cc. */
+  sweptVolumeCc: number | null;
+  /** Clearance volume of one cylinder at TDC, cc. */
+  clearanceVolumeCc: number | null;
+  /** Static compression ratio, :1. */
+  staticCr: number | null;
+  /** Dynamic compression ratio, :1 (from the cam card's intake closing). */
+  dynamicCr: number | null;
+  /** Mean piston speed at the rev limit, m/s. */
+  meanPistonSpeedMs: number | null;
+  /** Peak piston speed at the rev limit, m/s. */
+  peakPistonSpeedMs: number | null;
+  /** Crank angle after TDC of peak piston speed, degrees. */
+  peakPistonSpeedCrankDeg: number | null;
+  /** Deck clearance + gasket thickness, mm. */
+  quenchMm: number | null;
+  /** Rod length / stroke (the trade's rod ratio, l/L). */
+  rodRatio: number | null;
+  /** Bore / stroke. */
+  boreStrokeRatio: number | null;
+}
+
+export type ResultKey = keyof SpecResults;
+
+/** Which inputs each result needs. `cylinders` defaults to 2 and is never missing. */
+export const RESULT_INPUTS: { readonly [K in ResultKey]: readonly SpecField[] } = {
+  sweptVolumeCc: ["boreMm", "strokeMm"],
+  displacementCc: ["boreMm", "strokeMm", "cylinders"],
+  displacementCi: ["boreMm", "strokeMm", "cylinders"],
+  boreStrokeRatio: ["boreMm", "strokeMm"],
+  clearanceVolumeCc: CLEARANCE_FIELDS,
+  staticCr: [...CLEARANCE_FIELDS, "strokeMm"],
+  dynamicCr: [...CLEARANCE_FIELDS, "strokeMm", "rodLengthMm", "intakeClosesAbdcDeg"],
+  quenchMm: ["deckClearanceMm", "gasketThicknessMm"],
+  rodRatio: ["rodLengthMm", "strokeMm"],
+  meanPistonSpeedMs: ["strokeMm", "revLimitRpm"],
+  peakPistonSpeedMs: ["strokeMm", "rodLengthMm", "revLimitRpm"],
+  peakPistonSpeedCrankDeg: ["strokeMm", "rodLengthMm"],
+};
+
+export type CautionCode =
+  | "STATIC_CR_HIGH"
+  | "DYNAMIC_CR_HIGH"
+  | "MEAN_PISTON_SPEED_HIGH"
+  | "PEAK_PISTON_SPEED_HIGH"
+  | "QUENCH_TIGHT"
+  | "QUENCH_WIDE";
+
+export interface Caution {
+  code: CautionCode;
+  severity: "caution";
+  message: string;
+  /** The computed figure. */
+  value: number;
+  /** The threshold it crossed. */
+  limit: number;
+  /** The result the caution is about. */
+  field: ResultKey;
+}
+
+export interface Step {
+  id: string;
+  label: string;
+  /** The formula in symbols. */
+  formula: string;
+  /** The formula with this package's values, or what is needed to compute it. */
+  substituted: string;
+  /** null when the step could not be computed (inputs missing). */
+  result: number | null;
+  unit: string;
+}
+
+export interface SpecOk {
+  ok: true;
+  results: SpecResults;
+  cautions: Caution[];
+  steps: Step[];
+  /** Input fields that are missing, in input order; results that need them are null. */
+  missing: SpecField[];
+}
+
+export type SpecOutcome = SpecOk | ErrorResult;
+
+/** General safety text for screens and sheets that show computed figures. */
+export const SAFETY_NOTE =
+  "These figures are computed from the values entered. Limits for compression, piston speed and " +
+  "clearances come from the parts makers' instructions; confirm any build with them and with a " +
+  "qualified engine builder and tuner before it runs.";
+
+const DEG = Math.PI / 180;
+
+function needs(fields: readonly SpecField[]): string {
+  return "not computed: needs " + fields.join(", ");
+}
+
+function pending(
+  id: string,
+  label: string,
+  formula: string,
+  unit: string,
+  key: ResultKey,
+  spec: Record<string, unknown>,
+): Step {
+  const want = RESULT_INPUTS[key].filter((f) => f !== "cylinders" && spec[f] === null);
+  return { id, label, formula, substituted: needs(want), result: null, unit };
+}
+
+function outOfRange(field: string): ErrorResult {
+  return {
+    ok: false,
+    errors: [{ field, message: "is too large or too small for the figures to be computed" }],
+  };
+}
+
+function cautionsFor(r: SpecResults, t: Thresholds, rpm: number | null): Caution[] {
+  const out: Caution[] = [];
+  if (r.staticCr !== null && r.staticCr > t.staticCrMax) {
+    out.push({
+      code: "STATIC_CR_HIGH",
+      severity: "caution",
+      value: r.staticCr,
+      limit: t.staticCrMax,
+      field: "staticCr",
+      message:
+        `Static compression ${fmt(r.staticCr, 4)}:1 is above ${fmt(t.staticCrMax, 4)}:1, the limit set for pump fuel. ` +
+        "Higher compression raises the octane the engine needs and the risk of detonation; " +
+        "confirm with the piston maker's limits, the fuel the rider will use, and your tuner.",
+    });
+  }
+  if (r.dynamicCr !== null && r.dynamicCr > t.dynamicCrMax) {
+    out.push({
+      code: "DYNAMIC_CR_HIGH",
+      severity: "caution",
+      value: r.dynamicCr,
+      limit: t.dynamicCrMax,
+      field: "dynamicCr",
+      message:
+        `Dynamic compression ${fmt(r.dynamicCr, 4)}:1 is above ${fmt(t.dynamicCrMax, 4)}:1, the limit set for pump fuel. ` +
+        "Check the intake closing figure against the cam card and its lift, and " +
+        "confirm with the cam and piston makers' limits and your tuner.",
+    });
+  }
+  const at = rpm === null ? "" : ` at ${fmt(rpm)} rpm`;
+  if (r.meanPistonSpeedMs !== null && r.meanPistonSpeedMs > t.meanPistonSpeedMaxMs) {
+    out.push({
+      code: "MEAN_PISTON_SPEED_HIGH",
+      severity: "caution",
+      value: r.meanPistonSpeedMs,
+      limit: t.meanPistonSpeedMaxMs,
+      field: "meanPistonSpeedMs",
+      message:
+        `Mean piston speed${at} is ${fmt(r.meanPistonSpeedMs, 4)} m/s (${fmt(msToFtMin(r.meanPistonSpeedMs), 4)} ft/min), ` +
+        `above ${fmt(t.meanPistonSpeedMaxMs, 4)} m/s. Confirm the rev limit with the piston, rod and crank makers' ratings.`,
+    });
+  }
+  if (r.peakPistonSpeedMs !== null && r.peakPistonSpeedMs > t.peakPistonSpeedMaxMs) {
+    out.push({
+      code: "PEAK_PISTON_SPEED_HIGH",
+      severity: "caution",
+      value: r.peakPistonSpeedMs,
+      limit: t.peakPistonSpeedMaxMs,
+      field: "peakPistonSpeedMs",
+      message:
+        `Peak piston speed${at} is ${fmt(r.peakPistonSpeedMs, 4)} m/s (${fmt(msToFtMin(r.peakPistonSpeedMs), 4)} ft/min), ` +
+        `above ${fmt(t.peakPistonSpeedMaxMs, 4)} m/s. Confirm the rev limit with the piston, rod and crank makers' ratings.`,
+    });
+  }
+  if (r.quenchMm !== null) {
+    if (r.quenchMm < t.quenchMinMm) {
+      out.push({
+        code: "QUENCH_TIGHT",
+        severity: "caution",
+        value: r.quenchMm,
+        limit: t.quenchMinMm,
+        field: "quenchMm",
+        message:
+          `Quench ${fmt(r.quenchMm, 4)} mm (${fmt(mmToIn(r.quenchMm), 3)} in) is tighter than ${fmt(t.quenchMinMm, 4)} mm: ` +
+          "risk of piston-to-head contact at speed. Measure the deck and the compressed gasket, and " +
+          "confirm with the piston maker's minimum clearance.",
+      });
+    } else if (r.quenchMm > t.quenchMaxMm) {
+      out.push({
+        code: "QUENCH_WIDE",
+        severity: "caution",
+        value: r.quenchMm,
+        limit: t.quenchMaxMm,
+        field: "quenchMm",
+        message:
+          `Quench ${fmt(r.quenchMm, 4)} mm (${fmt(mmToIn(r.quenchMm), 3)} in) is wider than ${fmt(t.quenchMaxMm, 4)} mm: ` +
+          "the squish band does little and detonation is more likely. Confirm with the piston and " +
+          "head makers' recommendations and your tuner.",
+      });
+    }
+  }
+  return out;
+}
+
+/**
+ * Computes every figure the inputs allow. Never throws and never returns NaN: invalid
+ * input gives `{ ok: false, errors }`; missing input gives null results, listed in
+ * `missing`, with steps that say what they need.
+ */
+export function computeSpec(input: SpecInput): SpecOutcome {
+  try {
+    return compute(input);
+  } catch {
+    return { ok: false, errors: [{ field: "spec", message: "could not be computed" }] };
+  }
+}
+
+function compute(input: SpecInput): SpecOutcome {
+  const v = validateSpec(input);
+  if (!v.ok) return v;
+  const s = v.spec;
+  const rec = s as unknown as Record<string, unknown>;
+  const B = s.boreMm;
+  const L = s.strokeMm;
+  const n = s.cylinders;
+  const l = s.rodLengthMm;
+  const rpm = s.revLimitRpm;
+  const steps: Step[] = [];
+
+  // Swept volume and displacement.
+  let swept: number | null = null;
+  let disp: number | null = null;
+  let dispCi: number | null = null;
+  let bs: number | null = null;
+  if (B !== null && L !== null) {
+    swept = cylinderCcRaw(B, L);
+    disp = n * swept;
+    dispCi = disp / CC_PER_CI;
+    bs = B / L;
+    if (!(Number.isFinite(swept) && swept > 0 && Number.isFinite(disp) && disp > 0)) {
+      return outOfRange("boreMm");
+    }
+    if (!(Number.isFinite(bs) && bs > 0)) return outOfRange("boreMm");
+    steps.push(
+      {
+        id: "sweptVolume",
+        label: "Swept volume, one cylinder",
+        formula: "V_d = (π/4) · B² · L",
+        substituted: `(π/4) × (${fmt(B)} mm)² × ${fmt(L)} mm ÷ 1000`,
+        result: swept,
+        unit: "cc",
+      },
+      {
+        id: "displacement",
+        label: "Displacement",
+        formula: "V = n · V_d",
+        substituted: `${n} × ${fmt(swept)} cc`,
+        result: disp,
+        unit: "cc",
+      },
+      {
+        id: "displacementCi",
+        label: "Displacement in cubic inches",
+        formula: "V[ci] = V[cc] ÷ 16.387064",
+        substituted: `${fmt(disp)} ÷ 16.387064`,
+        result: dispCi,
+        unit: "ci",
+      },
+      {
+        id: "boreStrokeRatio",
+        label: "Bore/stroke ratio",
+        formula: "B / L",
+        substituted: `${fmt(B)} mm ÷ ${fmt(L)} mm`,
+        result: bs,
+        unit: "",
+      },
+    );
+  } else {
+    steps.push(
+      pending("sweptVolume", "Swept volume, one cylinder", "V_d = (π/4) · B² · L", "cc", "sweptVolumeCc", rec),
+      pending("displacement", "Displacement", "V = n · V_d", "cc", "displacementCc", rec),
+      pending("displacementCi", "Displacement in cubic inches", "V[ci] = V[cc] ÷ 16.387064", "ci", "displacementCi", rec),
+      pending("boreStrokeRatio", "Bore/stroke ratio", "B / L", "", "boreStrokeRatio", rec),
+    );
+  }
+
+  // Clearance volume and static ratio.
+  let vc: number | null = null;
+  let scr: number | null = null;
+  const VC_FORMULA = "V_c = V_chamber + (π/4)·B_g²·t + (π/4)·B²·h_deck − V_dome";
+  if (
+    B !== null &&
+    s.chamberCc !== null &&
+    s.gasketBoreMm !== null &&
+    s.gasketThicknessMm !== null &&
+    s.deckClearanceMm !== null &&
+    s.pistonDomeCc !== null
+  ) {
+    const gasketCc = cylinderCcRaw(s.gasketBoreMm, s.gasketThicknessMm);
+    const deckCc = cylinderCcRaw(B, s.deckClearanceMm);
+    vc = s.chamberCc + gasketCc + deckCc - s.pistonDomeCc;
+    if (!(Number.isFinite(vc) && vc > 0)) return outOfRange("chamberCc");
+    steps.push({
+      id: "clearanceVolume",
+      label: "Clearance volume at TDC",
+      formula: VC_FORMULA,
+      substituted:
+        `${fmt(s.chamberCc)} cc + (π/4) × (${fmt(s.gasketBoreMm)} mm)² × ${fmt(s.gasketThicknessMm)} mm ÷ 1000` +
+        ` + (π/4) × (${fmt(B)} mm)² × ${fmt(s.deckClearanceMm)} mm ÷ 1000 − ${fmt(s.pistonDomeCc)} cc` +
+        ` = ${fmt(s.chamberCc)} + ${fmt(gasketCc)} + ${fmt(deckCc)} − ${fmt(s.pistonDomeCc)}`,
+      result: vc,
+      unit: "cc",
+    });
+    if (swept !== null) {
+      scr = (swept + vc) / vc;
+      if (!Number.isFinite(scr)) return outOfRange("chamberCc");
+      steps.push({
+        id: "staticCr",
+        label: "Static compression ratio",
+        formula: "r_c = (V_d + V_c) / V_c",
+        substituted: `(${fmt(swept)} cc + ${fmt(vc)} cc) ÷ ${fmt(vc)} cc`,
+        result: scr,
+        unit: ":1",
+      });
+    } else {
+      steps.push(pending("staticCr", "Static compression ratio", "r_c = (V_d + V_c) / V_c", ":1", "staticCr", rec));
+    }
+  } else {
+    steps.push(
+      pending("clearanceVolume", "Clearance volume at TDC", VC_FORMULA, "cc", "clearanceVolumeCc", rec),
+      pending("staticCr", "Static compression ratio", "r_c = (V_d + V_c) / V_c", ":1", "staticCr", rec),
+    );
+  }
+
+  // Dynamic ratio.
+  let dcr: number | null = null;
+  const Y_FORMULA = "y = l + a − (a·cos θ + √(l² − a²·sin²θ)), a = L/2, θ = 180° + IVC";
+  const DCR_FORMULA = "DCR = (V_c + (π/4)·B²·y) / V_c";
+  if (scr !== null && vc !== null && B !== null && L !== null && l !== null && s.intakeClosesAbdcDeg !== null) {
+    const a = L / 2;
+    const thetaDeg = 180 + s.intakeClosesAbdcDeg;
+    const y = pistonPositionRaw(a, l, thetaDeg * DEG);
+    const vIvc = vc + cylinderCcRaw(B, y);
+    dcr = vIvc / vc;
+    if (!Number.isFinite(dcr)) return outOfRange("rodLengthMm");
+    steps.push(
+      {
+        id: "pistonAtIvc",
+        label: "Piston below TDC when the intake closes",
+        formula: Y_FORMULA,
+        substituted: `a = ${fmt(a)} mm, l = ${fmt(l)} mm, θ = 180° + ${fmt(s.intakeClosesAbdcDeg)}° = ${fmt(thetaDeg)}°`,
+        result: y,
+        unit: "mm",
+      },
+      {
+        id: "dynamicCr",
+        label: "Dynamic compression ratio",
+        formula: DCR_FORMULA,
+        substituted: `(${fmt(vc)} cc + (π/4) × (${fmt(B)} mm)² × ${fmt(y)} mm ÷ 1000) ÷ ${fmt(vc)} cc`,
+        result: dcr,
+        unit: ":1",
+      },
+    );
+  } else {
+    steps.push(
+      pending("pistonAtIvc", "Piston below TDC when the intake closes", Y_FORMULA, "mm", "dynamicCr", rec),
+      pending("dynamicCr", "Dynamic compression ratio", DCR_FORMULA, ":1", "dynamicCr", rec),
+    );
+  }
+
+  // Quench.
+  let quench: number | null = null;
+  if (s.deckClearanceMm !== null && s.gasketThicknessMm !== null) {
+    quench = s.deckClearanceMm + s.gasketThicknessMm;
+    steps.push({
+      id: "quench",
+      label: "Quench",
+      formula: "q = h_deck + t_gasket",
+      substituted: `${fmt(s.deckClearanceMm)} mm + ${fmt(s.gasketThicknessMm)} mm`,
+      result: quench,
+      unit: "mm",
+    });
+  } else {
+    steps.push(pending("quench", "Quench", "q = h_deck + t_gasket", "mm", "quenchMm", rec));
+  }
+
+  // Rod ratio and peak-speed angle.
+  let rr: number | null = null;
+  let peakDeg: number | null = null;
+  let peakTheta = 0;
+  const PEAK_ANGLE_FORMULA = "θ* where d²y/dθ² = 0 (0° < θ* < 90°)";
+  if (l !== null && L !== null) {
+    rr = l / L;
+    if (!Number.isFinite(rr)) return outOfRange("rodLengthMm");
+    peakTheta = peakSpeedAngleRaw(L / 2 / l);
+    peakDeg = peakTheta / DEG;
+    steps.push(
+      {
+        id: "rodRatio",
+        label: "Rod ratio (rod length / stroke)",
+        formula: "l / L",
+        substituted: `${fmt(l)} mm ÷ ${fmt(L)} mm`,
+        result: rr,
+        unit: "",
+      },
+      {
+        id: "peakPistonSpeedCrankDeg",
+        label: "Crank angle of peak piston speed",
+        formula: PEAK_ANGLE_FORMULA,
+        substituted: `a = ${fmt(L / 2)} mm, l = ${fmt(l)} mm, a/l = ${fmt(L / 2 / l)}`,
+        result: peakDeg,
+        unit: "° after TDC",
+      },
+    );
+  } else {
+    steps.push(
+      pending("rodRatio", "Rod ratio (rod length / stroke)", "l / L", "", "rodRatio", rec),
+      pending("peakPistonSpeedCrankDeg", "Crank angle of peak piston speed", PEAK_ANGLE_FORMULA, "° after TDC", "peakPistonSpeedCrankDeg", rec),
+    );
+  }
+
+  // Piston speeds at the rev limit.
+  let mean: number | null = null;
+  let peak: number | null = null;
+  const PEAK_FORMULA = "S_p = ω · (a·sin θ* + a²·sin θ*·cos θ* / √(l² − a²·sin²θ*)), ω = 2πN/60";
+  if (L !== null && rpm !== null) {
+    mean = (2 * L * rpm) / 60000;
+    if (!Number.isFinite(mean)) return outOfRange("revLimitRpm");
+    steps.push({
+      id: "meanPistonSpeed",
+      label: "Mean piston speed at the rev limit",
+      formula: "S̄_p = 2 · L · N",
+      substituted: `2 × ${fmt(L / 1000)} m × ${fmt(rpm)} rpm ÷ 60`,
+      result: mean,
+      unit: "m/s",
+    });
+    if (l !== null && peakDeg !== null) {
+      const omega = (rpm * 2 * Math.PI) / 60;
+      peak = (pistonVelocityRaw(L / 2, l, peakTheta) * omega) / 1000;
+      if (!Number.isFinite(peak)) return outOfRange("revLimitRpm");
+      steps.push({
+        id: "peakPistonSpeed",
+        label: "Peak piston speed at the rev limit",
+        formula: PEAK_FORMULA,
+        substituted: `a = ${fmt(L / 2)} mm, l = ${fmt(l)} mm, θ* = ${fmt(peakDeg)}°, ω = 2π × ${fmt(rpm)} ÷ 60 = ${fmt(omega)} rad/s`,
+        result: peak,
+        unit: "m/s",
+      });
+    } else {
+      steps.push(pending("peakPistonSpeed", "Peak piston speed at the rev limit", PEAK_FORMULA, "m/s", "peakPistonSpeedMs", rec));
+    }
+  } else {
+    steps.push(
+      pending("meanPistonSpeed", "Mean piston speed at the rev limit", "S̄_p = 2 · L · N", "m/s", "meanPistonSpeedMs", rec),
+      pending("peakPistonSpeed", "Peak piston speed at the rev limit", PEAK_FORMULA, "m/s", "peakPistonSpeedMs", rec),
+    );
+  }
+
+  const results: SpecResults = {
+    displacementCc: disp,
+    displacementCi: dispCi,
+    sweptVolumeCc: swept,
+    clearanceVolumeCc: vc,
+    staticCr: scr,
+    dynamicCr: dcr,
+    meanPistonSpeedMs: mean,
+    peakPistonSpeedMs: peak,
+    peakPistonSpeedCrankDeg: peakDeg,
+    quenchMm: quench,
+    rodRatio: rr,
+    boreStrokeRatio: bs,
+  };
+  return { ok: true, results, cautions: cautionsFor(results, s.thresholds, rpm), steps, missing: v.missing };
+}
