@@ -104,9 +104,11 @@ export function peakSpeedAngleRaw(lambda: number): number {
       -sn +
       lambda * ((-2 * s2) / q + (l2 * sn * c * c2) / q3) +
       l3 * ((s2 * c2) / q3 + (3 * l2 * sn * sn * sn * c * c * c) / q5);
-    let next = x - f / df;
+    const step = f / df;
+    let next = x - step;
     if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-    if (Math.abs(next - x) <= 1e-15 * Math.max(1, x)) return next;
+    else if (Math.abs(step) < 1e-11) return next; // quadratic convergence: error now ~1e-22
+    if (hi - lo < 1e-15) return next;
     x = next;
   }
   return x;

@@ -12,7 +12,13 @@ import {
 } from "./geometry";
 import type { Thresholds } from "./thresholds";
 import { CC_PER_CI, mmToIn, msToFtMin } from "./units";
-import { CLEARANCE_FIELDS, validateSpec, type SpecField, type SpecInput } from "./validate";
+import {
+  CLEARANCE_FIELDS,
+  validateSpec,
+  type CheckedSpec,
+  type SpecField,
+  type SpecInput,
+} from "./validate";
 
 export interface SpecResults {
   /** Engine displacement, cc. */
@@ -95,6 +101,7 @@ export interface SpecOk {
   ok: true;
   results: SpecResults;
   cautions: Caution[];
+  /** The work shown, one step per figure (also for figures not computed, saying what they need). */
   steps: Step[];
   /** Input fields that are missing, in input order; results that need them are null. */
   missing: SpecField[];
@@ -110,10 +117,7 @@ export const SAFETY_NOTE =
 
 const DEG = Math.PI / 180;
 
-function needs(fields: readonly SpecField[]): string {
-  return "not computed: needs " + fields.join(", ");
-}
-
+/** Text of a step that could not be computed: "not computed: needs boreMm, strokeMm". */
 function pending(
   id: string,
   label: string,
@@ -122,8 +126,16 @@ function pending(
   key: ResultKey,
   spec: Record<string, unknown>,
 ): Step {
-  const want = RESULT_INPUTS[key].filter((f) => f !== "cylinders" && spec[f] === null);
-  return { id, label, formula, substituted: needs(want), result: null, unit };
+  const fields = RESULT_INPUTS[key];
+  let text = "not computed: needs ";
+  let first = true;
+  for (let i = 0; i < fields.length; i++) {
+    const f = fields[i] as SpecField;
+    if (f === "cylinders" || spec[f] !== null) continue;
+    text += first ? f : ", " + f;
+    first = false;
+  }
+  return { id, label, formula, substituted: text, result: null, unit };
 }
 
 function outOfRange(field: string): ErrorResult {
@@ -161,7 +173,7 @@ function cautionsFor(r: SpecResults, t: Thresholds, rpm: number | null): Caution
         "confirm with the cam and piston makers' limits and your tuner.",
     });
   }
-  const at = rpm === null ? "" : ` at ${fmt(rpm)} rpm`;
+  const at = rpm === null ? "" : ` at ${String(rpm)} rpm`;
   if (r.meanPistonSpeedMs !== null && r.meanPistonSpeedMs > t.meanPistonSpeedMaxMs) {
     out.push({
       code: "MEAN_PISTON_SPEED_HIGH",
@@ -229,79 +241,42 @@ export function computeSpec(input: SpecInput): SpecOutcome {
   }
 }
 
+interface Work {
+  s: CheckedSpec;
+  r: SpecResults;
+  gasketCc: number;
+  deckCc: number;
+  yIvc: number;
+  omega: number;
+}
+
 function compute(input: SpecInput): SpecOutcome {
   const v = validateSpec(input);
   if (!v.ok) return v;
   const s = v.spec;
-  const rec = s as unknown as Record<string, unknown>;
   const B = s.boreMm;
   const L = s.strokeMm;
-  const n = s.cylinders;
   const l = s.rodLengthMm;
   const rpm = s.revLimitRpm;
-  const steps: Step[] = [];
 
-  // Swept volume and displacement.
   let swept: number | null = null;
   let disp: number | null = null;
   let dispCi: number | null = null;
   let bs: number | null = null;
   if (B !== null && L !== null) {
     swept = cylinderCcRaw(B, L);
-    disp = n * swept;
+    disp = s.cylinders * swept;
     dispCi = disp / CC_PER_CI;
     bs = B / L;
-    if (!(Number.isFinite(swept) && swept > 0 && Number.isFinite(disp) && disp > 0)) {
+    if (!(Number.isFinite(disp) && swept > 0 && Number.isFinite(bs) && bs > 0)) {
       return outOfRange("boreMm");
     }
-    if (!(Number.isFinite(bs) && bs > 0)) return outOfRange("boreMm");
-    steps.push(
-      {
-        id: "sweptVolume",
-        label: "Swept volume, one cylinder",
-        formula: "V_d = (π/4) · B² · L",
-        substituted: `(π/4) × (${fmt(B)} mm)² × ${fmt(L)} mm ÷ 1000`,
-        result: swept,
-        unit: "cc",
-      },
-      {
-        id: "displacement",
-        label: "Displacement",
-        formula: "V = n · V_d",
-        substituted: `${n} × ${fmt(swept)} cc`,
-        result: disp,
-        unit: "cc",
-      },
-      {
-        id: "displacementCi",
-        label: "Displacement in cubic inches",
-        formula: "V[ci] = V[cc] ÷ 16.387064",
-        substituted: `${fmt(disp)} ÷ 16.387064`,
-        result: dispCi,
-        unit: "ci",
-      },
-      {
-        id: "boreStrokeRatio",
-        label: "Bore/stroke ratio",
-        formula: "B / L",
-        substituted: `${fmt(B)} mm ÷ ${fmt(L)} mm`,
-        result: bs,
-        unit: "",
-      },
-    );
-  } else {
-    steps.push(
-      pending("sweptVolume", "Swept volume, one cylinder", "V_d = (π/4) · B² · L", "cc", "sweptVolumeCc", rec),
-      pending("displacement", "Displacement", "V = n · V_d", "cc", "displacementCc", rec),
-      pending("displacementCi", "Displacement in cubic inches", "V[ci] = V[cc] ÷ 16.387064", "ci", "displacementCi", rec),
-      pending("boreStrokeRatio", "Bore/stroke ratio", "B / L", "", "boreStrokeRatio", rec),
-    );
   }
 
-  // Clearance volume and static ratio.
   let vc: number | null = null;
   let scr: number | null = null;
-  const VC_FORMULA = "V_c = V_chamber + (π/4)·B_g²·t + (π/4)·B²·h_deck − V_dome";
+  let gasketCc = 0;
+  let deckCc = 0;
   if (
     B !== null &&
     s.chamberCc !== null &&
@@ -310,164 +285,50 @@ function compute(input: SpecInput): SpecOutcome {
     s.deckClearanceMm !== null &&
     s.pistonDomeCc !== null
   ) {
-    const gasketCc = cylinderCcRaw(s.gasketBoreMm, s.gasketThicknessMm);
-    const deckCc = cylinderCcRaw(B, s.deckClearanceMm);
+    gasketCc = cylinderCcRaw(s.gasketBoreMm, s.gasketThicknessMm);
+    deckCc = cylinderCcRaw(B, s.deckClearanceMm);
     vc = s.chamberCc + gasketCc + deckCc - s.pistonDomeCc;
     if (!(Number.isFinite(vc) && vc > 0)) return outOfRange("chamberCc");
-    steps.push({
-      id: "clearanceVolume",
-      label: "Clearance volume at TDC",
-      formula: VC_FORMULA,
-      substituted:
-        `${fmt(s.chamberCc)} cc + (π/4) × (${fmt(s.gasketBoreMm)} mm)² × ${fmt(s.gasketThicknessMm)} mm ÷ 1000` +
-        ` + (π/4) × (${fmt(B)} mm)² × ${fmt(s.deckClearanceMm)} mm ÷ 1000 − ${fmt(s.pistonDomeCc)} cc` +
-        ` = ${fmt(s.chamberCc)} + ${fmt(gasketCc)} + ${fmt(deckCc)} − ${fmt(s.pistonDomeCc)}`,
-      result: vc,
-      unit: "cc",
-    });
     if (swept !== null) {
       scr = (swept + vc) / vc;
       if (!Number.isFinite(scr)) return outOfRange("chamberCc");
-      steps.push({
-        id: "staticCr",
-        label: "Static compression ratio",
-        formula: "r_c = (V_d + V_c) / V_c",
-        substituted: `(${fmt(swept)} cc + ${fmt(vc)} cc) ÷ ${fmt(vc)} cc`,
-        result: scr,
-        unit: ":1",
-      });
-    } else {
-      steps.push(pending("staticCr", "Static compression ratio", "r_c = (V_d + V_c) / V_c", ":1", "staticCr", rec));
     }
-  } else {
-    steps.push(
-      pending("clearanceVolume", "Clearance volume at TDC", VC_FORMULA, "cc", "clearanceVolumeCc", rec),
-      pending("staticCr", "Static compression ratio", "r_c = (V_d + V_c) / V_c", ":1", "staticCr", rec),
-    );
   }
 
-  // Dynamic ratio.
   let dcr: number | null = null;
-  const Y_FORMULA = "y = l + a − (a·cos θ + √(l² − a²·sin²θ)), a = L/2, θ = 180° + IVC";
-  const DCR_FORMULA = "DCR = (V_c + (π/4)·B²·y) / V_c";
+  let yIvc = 0;
   if (scr !== null && vc !== null && B !== null && L !== null && l !== null && s.intakeClosesAbdcDeg !== null) {
-    const a = L / 2;
-    const thetaDeg = 180 + s.intakeClosesAbdcDeg;
-    const y = pistonPositionRaw(a, l, thetaDeg * DEG);
-    const vIvc = vc + cylinderCcRaw(B, y);
-    dcr = vIvc / vc;
+    yIvc = pistonPositionRaw(L / 2, l, (180 + s.intakeClosesAbdcDeg) * DEG);
+    dcr = (vc + cylinderCcRaw(B, yIvc)) / vc;
     if (!Number.isFinite(dcr)) return outOfRange("rodLengthMm");
-    steps.push(
-      {
-        id: "pistonAtIvc",
-        label: "Piston below TDC when the intake closes",
-        formula: Y_FORMULA,
-        substituted: `a = ${fmt(a)} mm, l = ${fmt(l)} mm, θ = 180° + ${fmt(s.intakeClosesAbdcDeg)}° = ${fmt(thetaDeg)}°`,
-        result: y,
-        unit: "mm",
-      },
-      {
-        id: "dynamicCr",
-        label: "Dynamic compression ratio",
-        formula: DCR_FORMULA,
-        substituted: `(${fmt(vc)} cc + (π/4) × (${fmt(B)} mm)² × ${fmt(y)} mm ÷ 1000) ÷ ${fmt(vc)} cc`,
-        result: dcr,
-        unit: ":1",
-      },
-    );
-  } else {
-    steps.push(
-      pending("pistonAtIvc", "Piston below TDC when the intake closes", Y_FORMULA, "mm", "dynamicCr", rec),
-      pending("dynamicCr", "Dynamic compression ratio", DCR_FORMULA, ":1", "dynamicCr", rec),
-    );
   }
 
-  // Quench.
-  let quench: number | null = null;
-  if (s.deckClearanceMm !== null && s.gasketThicknessMm !== null) {
-    quench = s.deckClearanceMm + s.gasketThicknessMm;
-    steps.push({
-      id: "quench",
-      label: "Quench",
-      formula: "q = h_deck + t_gasket",
-      substituted: `${fmt(s.deckClearanceMm)} mm + ${fmt(s.gasketThicknessMm)} mm`,
-      result: quench,
-      unit: "mm",
-    });
-  } else {
-    steps.push(pending("quench", "Quench", "q = h_deck + t_gasket", "mm", "quenchMm", rec));
-  }
+  const quench =
+    s.deckClearanceMm !== null && s.gasketThicknessMm !== null
+      ? s.deckClearanceMm + s.gasketThicknessMm
+      : null;
 
-  // Rod ratio and peak-speed angle.
   let rr: number | null = null;
   let peakDeg: number | null = null;
   let peakTheta = 0;
-  const PEAK_ANGLE_FORMULA = "θ* where d²y/dθ² = 0 (0° < θ* < 90°)";
   if (l !== null && L !== null) {
     rr = l / L;
-    if (!Number.isFinite(rr)) return outOfRange("rodLengthMm");
+    if (!(Number.isFinite(rr) && rr > 0)) return outOfRange("rodLengthMm");
     peakTheta = peakSpeedAngleRaw(L / 2 / l);
     peakDeg = peakTheta / DEG;
-    steps.push(
-      {
-        id: "rodRatio",
-        label: "Rod ratio (rod length / stroke)",
-        formula: "l / L",
-        substituted: `${fmt(l)} mm ÷ ${fmt(L)} mm`,
-        result: rr,
-        unit: "",
-      },
-      {
-        id: "peakPistonSpeedCrankDeg",
-        label: "Crank angle of peak piston speed",
-        formula: PEAK_ANGLE_FORMULA,
-        substituted: `a = ${fmt(L / 2)} mm, l = ${fmt(l)} mm, a/l = ${fmt(L / 2 / l)}`,
-        result: peakDeg,
-        unit: "° after TDC",
-      },
-    );
-  } else {
-    steps.push(
-      pending("rodRatio", "Rod ratio (rod length / stroke)", "l / L", "", "rodRatio", rec),
-      pending("peakPistonSpeedCrankDeg", "Crank angle of peak piston speed", PEAK_ANGLE_FORMULA, "° after TDC", "peakPistonSpeedCrankDeg", rec),
-    );
   }
 
-  // Piston speeds at the rev limit.
   let mean: number | null = null;
   let peak: number | null = null;
-  const PEAK_FORMULA = "S_p = ω · (a·sin θ* + a²·sin θ*·cos θ* / √(l² − a²·sin²θ*)), ω = 2πN/60";
+  let omega = 0;
   if (L !== null && rpm !== null) {
     mean = (2 * L * rpm) / 60000;
     if (!Number.isFinite(mean)) return outOfRange("revLimitRpm");
-    steps.push({
-      id: "meanPistonSpeed",
-      label: "Mean piston speed at the rev limit",
-      formula: "S̄_p = 2 · L · N",
-      substituted: `2 × ${fmt(L / 1000)} m × ${fmt(rpm)} rpm ÷ 60`,
-      result: mean,
-      unit: "m/s",
-    });
-    if (l !== null && peakDeg !== null) {
-      const omega = (rpm * 2 * Math.PI) / 60;
+    if (l !== null) {
+      omega = (rpm * 2 * Math.PI) / 60;
       peak = (pistonVelocityRaw(L / 2, l, peakTheta) * omega) / 1000;
       if (!Number.isFinite(peak)) return outOfRange("revLimitRpm");
-      steps.push({
-        id: "peakPistonSpeed",
-        label: "Peak piston speed at the rev limit",
-        formula: PEAK_FORMULA,
-        substituted: `a = ${fmt(L / 2)} mm, l = ${fmt(l)} mm, θ* = ${fmt(peakDeg)}°, ω = 2π × ${fmt(rpm)} ÷ 60 = ${fmt(omega)} rad/s`,
-        result: peak,
-        unit: "m/s",
-      });
-    } else {
-      steps.push(pending("peakPistonSpeed", "Peak piston speed at the rev limit", PEAK_FORMULA, "m/s", "peakPistonSpeedMs", rec));
     }
-  } else {
-    steps.push(
-      pending("meanPistonSpeed", "Mean piston speed at the rev limit", "S̄_p = 2 · L · N", "m/s", "meanPistonSpeedMs", rec),
-      pending("peakPistonSpeed", "Peak piston speed at the rev limit", PEAK_FORMULA, "m/s", "peakPistonSpeedMs", rec),
-    );
   }
 
   const results: SpecResults = {
@@ -484,5 +345,206 @@ function compute(input: SpecInput): SpecOutcome {
     rodRatio: rr,
     boreStrokeRatio: bs,
   };
-  return { ok: true, results, cautions: cautionsFor(results, s.thresholds, rpm), steps, missing: v.missing };
+  const work: Work = { s, r: results, gasketCc, deckCc, yIvc, omega };
+  return {
+    ok: true,
+    results,
+    cautions: cautionsFor(results, s.thresholds, rpm),
+    steps: buildSteps(work),
+    missing: v.missing,
+  };
+}
+
+const VC_FORMULA = "V_c = V_chamber + (π/4)·B_g²·t + (π/4)·B²·h_deck − V_dome";
+const Y_FORMULA = "y = l + a − (a·cos θ + √(l² − a²·sin²θ)), a = L/2, θ = 180° + IVC";
+const DCR_FORMULA = "DCR = (V_c + (π/4)·B²·y) / V_c";
+const PEAK_ANGLE_FORMULA = "θ* where d²y/dθ² = 0 (0° < θ* < 90°)";
+const PEAK_FORMULA = "S_p = ω · (a·sin θ* + a²·sin θ*·cos θ* / √(l² − a²·sin²θ*)), ω = 2πN/60";
+const MEAN_FORMULA = "S̄_p = 2 · L · N";
+
+/** The worked steps of one computeSpec call, in screen order. */
+function buildSteps(w: Work): Step[] {
+  const { s, r } = w;
+  const rec = s as unknown as Record<string, unknown>;
+  const steps: Step[] = [];
+  const B = s.boreMm;
+  const L = s.strokeMm;
+  const l = s.rodLengthMm;
+  const rpm = s.revLimitRpm;
+  // Inputs are shown as entered; computed figures are rounded by fmt.
+  const fB = B === null ? "" : String(B);
+  const fL = L === null ? "" : String(L);
+  const fl = l === null ? "" : String(l);
+  const fa = L === null ? "" : String(L / 2);
+  const fSwept = r.sweptVolumeCc === null ? "" : fmt(r.sweptVolumeCc);
+  const fDeck = String(s.deckClearanceMm);
+  const fThick = String(s.gasketThicknessMm);
+
+  if (r.sweptVolumeCc !== null && r.displacementCc !== null && r.displacementCi !== null && r.boreStrokeRatio !== null) {
+    steps.push(
+      {
+        id: "sweptVolume",
+        label: "Swept volume, one cylinder",
+        formula: "V_d = (π/4) · B² · L",
+        substituted: `(π/4) × (${fB} mm)² × ${fL} mm ÷ 1000`,
+        result: r.sweptVolumeCc,
+        unit: "cc",
+      },
+      {
+        id: "displacement",
+        label: "Displacement",
+        formula: "V = n · V_d",
+        substituted: `${s.cylinders} × ${fSwept} cc`,
+        result: r.displacementCc,
+        unit: "cc",
+      },
+      {
+        id: "displacementCi",
+        label: "Displacement in cubic inches",
+        formula: "V[ci] = V[cc] ÷ 16.387064",
+        substituted: `${fmt(r.displacementCc)} ÷ 16.387064`,
+        result: r.displacementCi,
+        unit: "ci",
+      },
+      {
+        id: "boreStrokeRatio",
+        label: "Bore/stroke ratio",
+        formula: "B / L",
+        substituted: `${fB} mm ÷ ${fL} mm`,
+        result: r.boreStrokeRatio,
+        unit: "",
+      },
+    );
+  } else {
+    steps.push(
+      pending("sweptVolume", "Swept volume, one cylinder", "V_d = (π/4) · B² · L", "cc", "sweptVolumeCc", rec),
+      pending("displacement", "Displacement", "V = n · V_d", "cc", "displacementCc", rec),
+      pending("displacementCi", "Displacement in cubic inches", "V[ci] = V[cc] ÷ 16.387064", "ci", "displacementCi", rec),
+      pending("boreStrokeRatio", "Bore/stroke ratio", "B / L", "", "boreStrokeRatio", rec),
+    );
+  }
+
+  const vc = r.clearanceVolumeCc;
+  const fVc = vc === null ? "" : fmt(vc);
+  if (vc !== null) {
+    const fCh = String(s.chamberCc);
+    const fDome = String(s.pistonDomeCc);
+    steps.push({
+      id: "clearanceVolume",
+      label: "Clearance volume at TDC",
+      formula: VC_FORMULA,
+      substituted:
+        `${fCh} cc + (π/4) × (${String(s.gasketBoreMm)} mm)² × ${fThick} mm ÷ 1000` +
+        ` + (π/4) × (${fB} mm)² × ${fDeck} mm ÷ 1000 − ${fDome} cc` +
+        ` = ${fCh} + ${fmt(w.gasketCc)} + ${fmt(w.deckCc)} − ${fDome}`,
+      result: vc,
+      unit: "cc",
+    });
+  } else {
+    steps.push(pending("clearanceVolume", "Clearance volume at TDC", VC_FORMULA, "cc", "clearanceVolumeCc", rec));
+  }
+  if (r.staticCr !== null && r.sweptVolumeCc !== null) {
+    steps.push({
+      id: "staticCr",
+      label: "Static compression ratio",
+      formula: "r_c = (V_d + V_c) / V_c",
+      substituted: `(${fSwept} cc + ${fVc} cc) ÷ ${fVc} cc`,
+      result: r.staticCr,
+      unit: ":1",
+    });
+  } else {
+    steps.push(pending("staticCr", "Static compression ratio", "r_c = (V_d + V_c) / V_c", ":1", "staticCr", rec));
+  }
+
+  if (r.dynamicCr !== null && L !== null && l !== null && s.intakeClosesAbdcDeg !== null) {
+    const fY = fmt(w.yIvc);
+    steps.push(
+      {
+        id: "pistonAtIvc",
+        label: "Piston below TDC when the intake closes",
+        formula: Y_FORMULA,
+        substituted: `a = ${fa} mm, l = ${fl} mm, θ = 180° + ${String(s.intakeClosesAbdcDeg)}° = ${String(180 + s.intakeClosesAbdcDeg)}°`,
+        result: w.yIvc,
+        unit: "mm",
+      },
+      {
+        id: "dynamicCr",
+        label: "Dynamic compression ratio",
+        formula: DCR_FORMULA,
+        substituted: `(${fVc} cc + (π/4) × (${fB} mm)² × ${fY} mm ÷ 1000) ÷ ${fVc} cc`,
+        result: r.dynamicCr,
+        unit: ":1",
+      },
+    );
+  } else {
+    steps.push(
+      pending("pistonAtIvc", "Piston below TDC when the intake closes", Y_FORMULA, "mm", "dynamicCr", rec),
+      pending("dynamicCr", "Dynamic compression ratio", DCR_FORMULA, ":1", "dynamicCr", rec),
+    );
+  }
+
+  if (r.quenchMm !== null) {
+    steps.push({
+      id: "quench",
+      label: "Quench",
+      formula: "q = h_deck + t_gasket",
+      substituted: `${fDeck} mm + ${fThick} mm`,
+      result: r.quenchMm,
+      unit: "mm",
+    });
+  } else {
+    steps.push(pending("quench", "Quench", "q = h_deck + t_gasket", "mm", "quenchMm", rec));
+  }
+
+  if (r.rodRatio !== null && r.peakPistonSpeedCrankDeg !== null && L !== null && l !== null) {
+    steps.push(
+      {
+        id: "rodRatio",
+        label: "Rod ratio (rod length / stroke)",
+        formula: "l / L",
+        substituted: `${fl} mm ÷ ${fL} mm`,
+        result: r.rodRatio,
+        unit: "",
+      },
+      {
+        id: "peakPistonSpeedCrankDeg",
+        label: "Crank angle of peak piston speed",
+        formula: PEAK_ANGLE_FORMULA,
+        substituted: `a = ${fa} mm, l = ${fl} mm, a/l = ${fmt(L / 2 / l)}`,
+        result: r.peakPistonSpeedCrankDeg,
+        unit: "° after TDC",
+      },
+    );
+  } else {
+    steps.push(
+      pending("rodRatio", "Rod ratio (rod length / stroke)", "l / L", "", "rodRatio", rec),
+      pending("peakPistonSpeedCrankDeg", "Crank angle of peak piston speed", PEAK_ANGLE_FORMULA, "° after TDC", "peakPistonSpeedCrankDeg", rec),
+    );
+  }
+
+  if (r.meanPistonSpeedMs !== null && L !== null && rpm !== null) {
+    steps.push({
+      id: "meanPistonSpeed",
+      label: "Mean piston speed at the rev limit",
+      formula: MEAN_FORMULA,
+      substituted: `2 × ${String(L / 1000)} m × ${String(rpm)} rpm ÷ 60`,
+      result: r.meanPistonSpeedMs,
+      unit: "m/s",
+    });
+  } else {
+    steps.push(pending("meanPistonSpeed", "Mean piston speed at the rev limit", MEAN_FORMULA, "m/s", "meanPistonSpeedMs", rec));
+  }
+  if (r.peakPistonSpeedMs !== null && r.peakPistonSpeedCrankDeg !== null && L !== null && l !== null && rpm !== null) {
+    steps.push({
+      id: "peakPistonSpeed",
+      label: "Peak piston speed at the rev limit",
+      formula: PEAK_FORMULA,
+      substituted: `a = ${fa} mm, l = ${fl} mm, θ* = ${fmt(r.peakPistonSpeedCrankDeg)}°, ω = 2π × ${String(rpm)} ÷ 60 = ${fmt(w.omega)} rad/s`,
+      result: r.peakPistonSpeedMs,
+      unit: "m/s",
+    });
+  } else {
+    steps.push(pending("peakPistonSpeed", "Peak piston speed at the rev limit", PEAK_FORMULA, "m/s", "peakPistonSpeedMs", rec));
+  }
+  return steps;
 }
