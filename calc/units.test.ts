@@ -1,0 +1,82 @@
+import { describe, expect, it } from "vitest";
+import {
+  CC_PER_CI,
+  KPA_PER_INHG,
+  NM_PER_LBFT,
+  N_PER_LBF,
+  W_PER_HP,
+  ccToCi,
+  ciToCc,
+  cToF,
+  fToC,
+  ftMinToMs,
+  hpToKw,
+  inHgToKPa,
+  inToMm,
+  kwToHp,
+  lbFtToNm,
+  mmToIn,
+  msToFtMin,
+  nmToLbFt,
+} from "./index";
+
+const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
+
+describe("unit definitions", () => {
+  it("1 in is 25.4 mm exactly", () => {
+    // published: NBS notice 1960 (addendum to NBS Circular 572), 1959 international yard and pound agreement
+    expect(inToMm(1)).toBe(25.4);
+    expect(mmToIn(25.4)).toBe(1);
+    // derived: 12 in = 304.8 mm
+    expect(inToMm(12)).toBeCloseTo(304.8, 12);
+  });
+
+  it("1 in³ is 16.387064 cm³ exactly", () => {
+    // derived: 2.54³ cm³ from the 1959 agreement (NBS 1960 notice)
+    expect(CC_PER_CI).toBe(16.387064);
+    expect(rel(2.54 ** 3, CC_PER_CI)).toBeLessThan(1e-15);
+    expect(ciToCc(1)).toBe(16.387064);
+    expect(ccToCi(16.387064)).toBe(1);
+  });
+
+  it("1 lbf is 4.4482216152605 N", () => {
+    // derived: 0.45359237 kg × 9.80665 m/s² (1959 agreement; CGPM 1901 standard gravity)
+    expect(rel(N_PER_LBF, 4.4482216152605)).toBeLessThan(1e-15);
+  });
+
+  it("1 lbf·ft is 1.355818 N·m", () => {
+    // published: NIST SP 811 (2008) App. B.8 lists 1.355 818 E+00
+    expect(lbFtToNm(1)).toBeCloseTo(1.355818, 6);
+    // derived: 4.4482216152605 N × 0.3048 m = 1.3558179483314004 N·m
+    expect(rel(NM_PER_LBFT, 1.3558179483314004)).toBeLessThan(1e-15);
+    expect(nmToLbFt(1.3558179483314004)).toBeCloseTo(1, 14);
+  });
+
+  it("1 mechanical hp is 745.6999 W", () => {
+    // published: NIST SP 811 (2008) App. B.8 lists 7.456 999 E+02 W for 550 ft·lbf/s
+    expect(W_PER_HP).toBeCloseTo(745.6999, 4);
+    // derived: 550 × 1.3558179483314004 = 745.69987158227022 W
+    expect(rel(W_PER_HP, 745.69987158227022)).toBeLessThan(1e-15);
+    expect(hpToKw(1)).toBeCloseTo(0.7456999, 7);
+    expect(kwToHp(0.74569987158227022)).toBeCloseTo(1, 14);
+  });
+
+  it("1 inHg (0 °C) is 3.386389 kPa", () => {
+    // published: NIST SP 811 (2008) App. B.8 lists 3.386 389 E+03 Pa
+    expect(KPA_PER_INHG).toBe(3.386389);
+    expect(inHgToKPa(29.92)).toBeCloseTo(101.3207, 3); // derived: 29.92 × 3.386389
+  });
+
+  it("piston speed in feet per minute", () => {
+    // derived: 1 m/s = 60 / 0.3048 ft/min = 196.850393… ft/min
+    expect(msToFtMin(1)).toBeCloseTo(196.8503937, 6);
+    expect(ftMinToMs(196.8503937007874)).toBeCloseTo(1, 12);
+  });
+
+  it("temperature scales", () => {
+    // published: definition of the Fahrenheit scale, 0 °C = 32 °F, 100 °C = 212 °F
+    expect(cToF(0)).toBe(32);
+    expect(cToF(100)).toBe(212);
+    expect(fToC(77)).toBe(25);
+  });
+});
