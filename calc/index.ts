@@ -63,6 +63,7 @@ export {
   DEFAULT_THRESHOLD_VALUES,
   THRESHOLD_KEYS,
   type Thresholds,
+  type ThresholdInput,
   type ThresholdKey,
   type ThresholdDefault,
   type SourceBasis,

@@ -21,6 +21,9 @@ export interface Thresholds {
 
 export type ThresholdKey = keyof Thresholds;
 
+/** Limits as given to computeSpec: any subset; a missing or null key takes the default. */
+export type ThresholdInput = { [K in ThresholdKey]?: number | null | undefined };
+
 /** How a default value is backed. */
 export type SourceBasis = "published" | "derived" | "common practice" | "from memory";
 

@@ -6,7 +6,12 @@
  * usable number (NaN, ±Infinity, wrong sign, not a number at all) is an error.
  */
 import type { ErrorResult, FieldError } from "./errors";
-import { DEFAULT_THRESHOLD_VALUES, THRESHOLD_KEYS, type Thresholds } from "./thresholds";
+import {
+  DEFAULT_THRESHOLD_VALUES,
+  THRESHOLD_KEYS,
+  type ThresholdInput,
+  type Thresholds,
+} from "./thresholds";
 
 export type SpecField =
   | "boreMm"
@@ -46,7 +51,7 @@ export interface SpecInput {
   /** Rev limit, rpm. */
   revLimitRpm?: number | null | undefined;
   /** Limits for the cautions; missing keys take DEFAULT_THRESHOLDS. */
-  thresholds?: Partial<Thresholds> | null | undefined;
+  thresholds?: ThresholdInput | null | undefined;
 }
 
 /** A validated package: every field a finite number or null (missing). */
