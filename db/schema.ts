@@ -1,0 +1,13 @@
+// The typed database. Each feature keeps its tables in db/schema/<feature>.ts;
+// this interface joins them.
+import type { CoreTables } from "./schema/core";
+import type { AuthTables } from "./schema/auth";
+import type { CatalogTables } from "./schema/catalog";
+import type { PackageTables } from "./schema/packages";
+
+export interface Database extends CoreTables, AuthTables, CatalogTables, PackageTables {}
+
+export type * from "./schema/core";
+export type * from "./schema/auth";
+export type * from "./schema/catalog";
+export type * from "./schema/packages";

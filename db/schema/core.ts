@@ -1,0 +1,63 @@
+import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
+
+export type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
+
+export const ROLES = ["owner", "builder", "service_writer", "apprentice"] as const;
+export type Role = (typeof ROLES)[number];
+
+export interface ShopTable {
+  id: Generated<number>;
+  name: string;
+  city: string;
+  phone: string;
+  email: string;
+  labour_rate_cents: number;
+  created_at: Generated<Timestamp>;
+}
+
+export interface UserTable {
+  id: Generated<number>;
+  email: string;
+  name: string;
+  role: Role;
+  password_hash: string | null;
+  disabled_at: Timestamp | null;
+  created_at: Generated<Timestamp>;
+  updated_at: Generated<Timestamp>;
+}
+
+export interface CustomerTable {
+  id: Generated<number>;
+  name: string;
+  email: string | null;
+  phone: string | null;
+  city: string | null;
+  notes: string;
+  created_at: Generated<Timestamp>;
+}
+
+export interface BikeTable {
+  id: Generated<number>;
+  customer_id: number;
+  year: number;
+  model: string;
+  vin: string | null;
+  engine_ci: number | null;
+  mileage: number | null;
+  notes: string;
+  created_at: Generated<Timestamp>;
+}
+
+export interface CoreTables {
+  shop: ShopTable;
+  users: UserTable;
+  customers: CustomerTable;
+  bikes: BikeTable;
+}
+
+export type User = Selectable<UserTable>;
+export type NewUser = Insertable<UserTable>;
+export type UserUpdate = Updateable<UserTable>;
+export type Customer = Selectable<CustomerTable>;
+export type Bike = Selectable<BikeTable>;
+export type Shop = Selectable<ShopTable>;

@@ -1,0 +1,65 @@
+# Sourced by start.sh and test.sh: the environment of the local default.
+# Anything already set in the environment wins.
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+export TW_DATA_DIR="${TW_DATA_DIR:-$ROOT/.data}"
+export TW_RUN_DIR="$TW_DATA_DIR/run"
+mkdir -p "$TW_RUN_DIR" "$TW_DATA_DIR/log"
+
+# Generated once per data folder, never committed.
+if [ -z "${SESSION_SECRET:-}" ]; then
+  if [ ! -s "$TW_DATA_DIR/session-secret" ]; then
+    (umask 077; node -e 'process.stdout.write(require("crypto").randomBytes(32).toString("hex"))' > "$TW_DATA_DIR/session-secret")
+  fi
+  SESSION_SECRET="$(cat "$TW_DATA_DIR/session-secret")"
+  export SESSION_SECRET
+fi
+
+# Local fakes of the hosted services, on loopback (scripts/local-services.ts).
+export TW_SMTP_PORT="${TW_SMTP_PORT:-2526}"
+export TW_MAIL_API_PORT="${TW_MAIL_API_PORT:-2527}"
+export TW_S3_PORT="${TW_S3_PORT:-4569}"
+export TW_PAY_PORT="${TW_PAY_PORT:-12111}"
+
+ensure_node_modules() {
+  if [ ! -d "$ROOT/node_modules" ] || [ "$ROOT/package-lock.json" -nt "$ROOT/node_modules/.package-lock.json" ]; then
+    echo "setup: installing npm packages (npm ci)…"
+    (cd "$ROOT" && npm ci --no-audit --no-fund --loglevel=error)
+  fi
+}
+
+# Starts the local service fakes in the background unless they already run.
+start_local_services() {
+  local pidfile="$TW_RUN_DIR/services.pid"
+  if [ -f "$pidfile" ] && kill -0 "$(cat "$pidfile")" 2>/dev/null; then
+    echo "services: reusing local services (pid $(cat "$pidfile"))"
+    return 0
+  fi
+  rm -f "$TW_RUN_DIR/services.ready"
+  # setsid: the services outlive this script and hold none of its pipes
+  setsid node --import tsx "$ROOT/scripts/local-services.ts" </dev/null >"$TW_DATA_DIR/log/services.log" 2>&1 &
+  echo $! >"$pidfile"
+  for _ in $(seq 1 100); do
+    [ -f "$TW_RUN_DIR/services.ready" ] && break
+    if ! kill -0 "$(cat "$pidfile")" 2>/dev/null; then
+      echo "services: failed to start; see $TW_DATA_DIR/log/services.log" >&2
+      tail -20 "$TW_DATA_DIR/log/services.log" >&2
+      return 1
+    fi
+    sleep 0.1
+  done
+  cat "$TW_RUN_DIR/services.ready"
+}
+
+stop_pidfile() {
+  local pidfile="$1" what="$2"
+  if [ -f "$pidfile" ]; then
+    local pid; pid=$(cat "$pidfile")
+    if kill -0 "$pid" 2>/dev/null; then
+      kill "$pid" 2>/dev/null || true
+      for _ in $(seq 1 50); do kill -0 "$pid" 2>/dev/null || break; sleep 0.1; done
+      kill -9 "$pid" 2>/dev/null || true
+      echo "stop: stopped $what (pid $pid)"
+    fi
+    rm -f "$pidfile"
+  fi
+}

@@ -1,0 +1,30 @@
+// The local fakes of the hosted services, in one process on loopback.
+// Each service registers itself below; the process writes a ready file listing what runs.
+import { writeFileSync } from "node:fs";
+import path from "node:path";
+
+type Started = { name: string; url: string; stop: () => Promise<void> };
+type Starter = () => Promise<Started>;
+
+const starters: Starter[] = [];
+
+async function main() {
+  const runDir = process.env.TW_RUN_DIR ?? path.resolve(".data/run");
+  const started: Started[] = [];
+  for (const start of starters) started.push(await start());
+  const lines = started.map((s) => `services: ${s.name} on ${s.url}`);
+  writeFileSync(path.join(runDir, "services.ready"), (lines.join("\n") || "services: none configured") + "\n");
+  const stop = async () => {
+    await Promise.allSettled(started.map((s) => s.stop()));
+    process.exit(0);
+  };
+  process.on("SIGTERM", stop);
+  process.on("SIGINT", stop);
+  // Keep the process alive even when no service holds a socket open.
+  setInterval(() => {}, 1 << 30);
+}
+
+main().catch((e) => {
+  console.error(e);
+  process.exit(1);
+});

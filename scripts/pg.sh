@@ -1,0 +1,106 @@
+#!/usr/bin/env bash
+# The project's own PostgreSQL 15: installed from Debian's packages when missing,
+# a cluster in the project's data folder, served on 127.0.0.1 only.
+#   scripts/pg.sh start   ensure installed, initialised and running (reuses a running server)
+#   scripts/pg.sh stop    stop the server this project runs
+#   scripts/pg.sh status  exit 0 when running
+#   scripts/pg.sh url [db]  print the connection URL
+# With DATABASE_URL set in the environment, nothing is started or stopped.
+set -euo pipefail
+
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+DATA_ROOT="${TW_DATA_DIR:-$ROOT/.data}"
+PG_PORT="${TW_PG_PORT:-54329}"
+PG_BIN="${TW_PG_BIN:-/usr/lib/postgresql/15/bin}"
+DB_NAME="${TW_DB_NAME:-torquewright}"
+
+is_root() { [ "$(id -u)" = "0" ]; }
+as_pg() { if is_root; then runuser -u postgres -- "$@"; else "$@"; fi; }
+
+# The cluster lives in the data folder unless the postgres OS user cannot reach it
+# (a checkout under a private home); then in a folder named after the checkout.
+cluster_dir() {
+  local preferred="$DATA_ROOT/pg"
+  if is_root && ! runuser -u postgres -- test -x "$DATA_ROOT" 2>/dev/null; then
+    local hash
+    hash=$(printf '%s' "$ROOT" | sha256sum | cut -c1-12)
+    echo "/var/tmp/torquewright-pg/$hash"
+  else
+    echo "$preferred"
+  fi
+}
+
+ensure_installed() {
+  if [ ! -x "$PG_BIN/pg_ctl" ]; then
+    echo "pg: installing PostgreSQL 15 from Debian's packages…" >&2
+    if is_root; then
+      apt-get update -qq >&2 && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq postgresql-15 >&2
+    else
+      echo "pg: PostgreSQL 15 is missing and installing it needs root (apt-get install postgresql-15)" >&2
+      exit 1
+    fi
+  fi
+}
+
+url() { echo "postgres://postgres@127.0.0.1:$PG_PORT/${1:-$DB_NAME}"; }
+
+running() {
+  local dir="$1"
+  [ -f "$dir/postmaster.pid" ] && as_pg "$PG_BIN/pg_ctl" -D "$dir" status >/dev/null 2>&1
+}
+
+start() {
+  ensure_installed
+  mkdir -p "$DATA_ROOT"
+  local dir; dir=$(cluster_dir)
+  local sock="$dir/../run-$(basename "$dir")"
+  mkdir -p "$dir" "$sock"
+  if is_root; then chown postgres:postgres "$dir" "$sock"; chmod 700 "$dir"; fi
+  if [ ! -f "$dir/PG_VERSION" ]; then
+    echo "pg: creating a cluster in $dir" >&2
+    as_pg "$PG_BIN/initdb" -D "$dir" -U postgres --auth=trust -E UTF8 --no-locale >/dev/null
+  fi
+  if running "$dir"; then
+    echo "pg: reusing the server already running on 127.0.0.1:$PG_PORT ($dir)" >&2
+  else
+    # A pid file left by a crash is recovered: the server is not running, so it is stale.
+    if [ -f "$dir/postmaster.pid" ]; then
+      echo "pg: removing a stale pid file" >&2
+      rm -f "$dir/postmaster.pid"
+    fi
+    local log="$DATA_ROOT/pg.log"
+    touch "$log"; if is_root; then chown postgres:postgres "$log"; fi
+    as_pg "$PG_BIN/pg_ctl" -D "$dir" -l "$log" -w -t 60 \
+      -o "-h 127.0.0.1 -p $PG_PORT -k $sock ${TW_PG_OPTIONS:-}" start >/dev/null
+    echo "pg: started PostgreSQL 15 on 127.0.0.1:$PG_PORT (data: $dir, log: $log)" >&2
+  fi
+  for _ in $(seq 1 60); do
+    if "$PG_BIN/pg_isready" -h 127.0.0.1 -p "$PG_PORT" -q; then break; fi
+    sleep 0.5
+  done
+  "$PG_BIN/pg_isready" -h 127.0.0.1 -p "$PG_PORT" -q
+  if ! "$PG_BIN/psql" "$(url postgres)" -tAc "select 1 from pg_database where datname='$DB_NAME'" | grep -q 1; then
+    "$PG_BIN/createdb" -h 127.0.0.1 -p "$PG_PORT" -U postgres "$DB_NAME"
+  fi
+}
+
+stop() {
+  local dir; dir=$(cluster_dir)
+  if running "$dir"; then
+    as_pg "$PG_BIN/pg_ctl" -D "$dir" -m fast -w stop >/dev/null
+    echo "pg: stopped the server on 127.0.0.1:$PG_PORT" >&2
+  fi
+}
+
+cmd="${1:-status}"
+if [ -n "${DATABASE_URL:-}" ] && [ "$cmd" != "url" ]; then
+  echo "pg: DATABASE_URL is set; using that server, starting nothing" >&2
+  exit 0
+fi
+case "$cmd" in
+  start) start ;;
+  stop) stop ;;
+  status) running "$(cluster_dir)" ;;
+  url) if [ -n "${DATABASE_URL:-}" ] && [ -z "${2:-}" ]; then echo "$DATABASE_URL"; else url "${2:-}"; fi ;;
+  *) echo "usage: scripts/pg.sh start|stop|status|url [db]" >&2; exit 2 ;;
+esac

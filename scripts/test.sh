@@ -1,0 +1,66 @@
+#!/usr/bin/env bash
+# npm test: from a fresh clone, installs what is missing, starts what the tests need,
+# runs typecheck, Vitest (unit + integration on a fresh test database), the build and
+# Playwright in Chromium, stops what it started, and ends with "N passed, N failed".
+set -uo pipefail
+# The tests run their own local services on their own ports, beside a running demo.
+export TW_SMTP_PORT="${TW_TEST_SMTP_PORT:-2626}" TW_MAIL_API_PORT="${TW_TEST_MAIL_API_PORT:-2627}"
+export TW_S3_PORT="${TW_TEST_S3_PORT:-4669}" TW_PAY_PORT="${TW_TEST_PAY_PORT:-12211}"
+source "$(dirname "${BASH_SOURCE[0]}")/local-env.sh"
+export TW_RUN_DIR="$TW_DATA_DIR/run-test"; mkdir -p "$TW_RUN_DIR"
+cd "$ROOT"
+RESULTS="$TW_DATA_DIR/test-results"
+rm -rf "$RESULTS"; mkdir -p "$RESULTS"
+started_pg=0
+status=0
+
+cleanup() {
+  stop_pidfile "$TW_RUN_DIR/services.pid" "the test services" >/dev/null
+  if [ "$started_pg" = 1 ]; then bash scripts/pg.sh stop; fi
+}
+trap cleanup EXIT
+
+ensure_node_modules || exit 1
+if [ ! -x /usr/bin/chromium ] && [ -z "${CHROMIUM_PATH:-}" ]; then
+  echo "setup: installing Debian's chromium…"
+  (apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium) >"$TW_DATA_DIR/log/chromium-install.log" 2>&1 \
+    || { echo "setup: could not install chromium; see $TW_DATA_DIR/log/chromium-install.log"; exit 1; }
+fi
+
+if [ -z "${DATABASE_URL:-}" ]; then
+  if ! bash scripts/pg.sh status; then started_pg=1; fi
+  bash scripts/pg.sh start || exit 1
+  BASE_URL="$(bash scripts/pg.sh url)"
+else
+  BASE_URL="$DATABASE_URL"
+fi
+export TEST_DATABASE_URL="$(node -e 'const u=new URL(process.argv[1]);u.pathname="/torquewright_test";console.log(u.toString())' "$BASE_URL")"
+export E2E_DATABASE_URL="$(node -e 'const u=new URL(process.argv[1]);u.pathname="/torquewright_e2e";console.log(u.toString())' "$BASE_URL")"
+unset DATABASE_URL
+start_local_services || exit 1
+
+step() { echo ""; echo "== $1"; }
+
+step "typecheck"
+if ! npm run -s typecheck; then echo "typecheck failed"; status=1; fi
+
+step "vitest (unit and integration)"
+npx vitest run --reporter=default --reporter=json --outputFile.json="$RESULTS/vitest.json" || status=1
+
+step "build"
+if ! npx react-router build >"$TW_DATA_DIR/log/build-test.log" 2>&1; then
+  tail -40 "$TW_DATA_DIR/log/build-test.log"; echo "build failed"; status=1
+else
+  step "playwright (e2e in Chromium)"
+  DATABASE_URL="$E2E_DATABASE_URL" npx tsx db/reset.ts && DATABASE_URL="$E2E_DATABASE_URL" npx tsx db/seed.ts || status=1
+  npx playwright test || status=1
+fi
+
+echo ""
+summary=$(node scripts/test-summary.mjs "$RESULTS")
+if [ "$status" != 0 ] && [ "$(echo "$summary" | sed -E 's/.* ([0-9]+) failed/\1/')" = "0" ]; then
+  # a failure outside any test (typecheck, build, a crashed runner) still counts
+  summary=$(echo "$summary" | sed -E 's/ 0 failed$/ 1 failed/')
+fi
+echo "$summary"
+exit $status
