@@ -44,9 +44,15 @@ ensure_installed() {
 
 url() { echo "postgres://postgres@127.0.0.1:$PG_PORT/${1:-$DB_NAME}"; }
 
+# Running means: a pid file whose process is alive (not a zombie left by a crash) and answers.
 running() {
-  local dir="$1"
-  [ -f "$dir/postmaster.pid" ] && as_pg "$PG_BIN/pg_ctl" -D "$dir" status >/dev/null 2>&1
+  local dir="$1" pid state
+  [ -f "$dir/postmaster.pid" ] || return 1
+  pid=$(head -1 "$dir/postmaster.pid" 2>/dev/null)
+  [ -n "$pid" ] && [ -d "/proc/$pid" ] || return 1
+  state=$(awk '/^State:/ {print $2}' "/proc/$pid/status" 2>/dev/null)
+  [ "$state" != "Z" ] || return 1
+  "$PG_BIN/pg_isready" -h 127.0.0.1 -p "$PG_PORT" -q -t 5
 }
 
 start() {
