@@ -258,6 +258,16 @@ describe("dynamic compression (derived: V(180° + IVC)/V_c)", () => {
     expect(dynamicCompressionRatio({ ...dyn, intakeClosesAbdcDeg: 90 })).toBeCloseTo(v / 77.853982, 5);
   });
 
+  it("agrees with V_c + (π/4)·B²·y(180° + IVC) from the piston position", () => {
+    // derived: the definition, evaluated through pistonPositionMm
+    const vc = clearanceVolumeCc(base);
+    for (const ivc of [0.5, 20, 45, 63, 100, 150]) {
+      const y = pistonPositionMm(100, 150, 180 + ivc);
+      const expected = (vc + (Math.PI / 4) * 100 * 100 * y * 1e-3) / vc;
+      expect(rel(dynamicCompressionRatio({ ...dyn, intakeClosesAbdcDeg: ivc }), expected)).toBeLessThan(1e-12);
+    }
+  });
+
   it("falls as the intake closes later", () => {
     // derived: the piston rises from BDC to TDC
     let prev = dynamicCompressionRatio(dyn);

@@ -248,6 +248,23 @@ export function requireIvc(ivc: number): void {
   }
 }
 
+/**
+ * Piston height above BDC (mm) when the intake closes `ivcAbdcDeg` after BDC, i.e.
+ * L − y(180° + IVC), in a form without cancellation near BDC:
+ * d = 2a·sin²φ·(1 − 2a·cos²φ/(w + l)), φ = IVC/2, w = √(l² − a²·sin² IVC).
+ * (From y = l + a − a cos θ − w with θ = 180° + IVC.) Never negative.
+ */
+export function heightAboveBdcRaw(a: number, l: number, ivcAbdcDeg: number): number {
+  const phi = (ivcAbdcDeg * DEG) / 2;
+  const sp = Math.sin(phi);
+  const cp = Math.cos(phi);
+  const si = 2 * sp * cp; // sin IVC
+  const w = Math.sqrt(l * l - a * a * si * si);
+  const bracket = 1 - (2 * a * cp * cp) / (w + l);
+  return 2 * a * sp * sp * (bracket > 0 ? bracket : 0);
+}
+
+/** DCR from validated inputs; a = stroke/2, vc the clearance volume. Never above the static ratio. */
 export function dynamicRatioRaw(
   boreMm: number,
   a: number,
@@ -255,8 +272,8 @@ export function dynamicRatioRaw(
   ivcAbdcDeg: number,
   vc: number,
 ): number {
-  const y = pistonPositionRaw(a, l, (180 + ivcAbdcDeg) * DEG);
-  return (vc + cylinderCcRaw(boreMm, y)) / vc;
+  const vd = cylinderCcRaw(boreMm, 2 * a);
+  return (vd + vc - cylinderCcRaw(boreMm, heightAboveBdcRaw(a, l, ivcAbdcDeg))) / vc;
 }
 
 /** Quench (squish) distance, mm: deck clearance + compressed gasket thickness. */

@@ -2,6 +2,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
   ccToCi,
+  clearanceVolumeCc,
   ciToCc,
   computeSpec,
   displacementCc,
@@ -40,7 +41,7 @@ const staticSpec: fc.Arbitrary<StaticInputs> = fc
   .map(({ gasketOverMm, ...s }) => ({ ...s, gasketBoreMm: s.boreMm + gasketOverMm }));
 
 const dynamicSpec = fc
-  .tuple(staticSpec, num(1.0001, 6), num(0, 179.9))
+  .tuple(staticSpec, num(1.0001, 6), fc.oneof(num(0, 179.9), num(0, 1e-3), fc.constant(0)))
   .map(([s, k, ivc]) => ({ ...s, rodLengthMm: (s.strokeMm / 2) * k, intakeClosesAbdcDeg: ivc }));
 
 describe("properties", () => {
@@ -57,10 +58,13 @@ describe("properties", () => {
 
   it("the static ratio rises as the chamber shrinks, the dome grows or the gasket thins", () => {
     fc.assert(
-      fc.property(staticSpec, num(0.01, 0.9), (s, f) => {
+      fc.property(staticSpec, num(0.01, 0.99), (s, f) => {
         const r = staticCompressionRatio(s);
-        expect(staticCompressionRatio({ ...s, chamberCc: s.chamberCc * (1 - f) })).toBeGreaterThan(r);
-        expect(staticCompressionRatio({ ...s, pistonDomeCc: s.pistonDomeCc + f })).toBeGreaterThan(r);
+        const vc = clearanceVolumeCc(s);
+        // each change takes away less than the whole clearance volume, so the package stays physical
+        const less = f * Math.min(s.chamberCc, vc);
+        expect(staticCompressionRatio({ ...s, chamberCc: s.chamberCc - less })).toBeGreaterThan(r);
+        expect(staticCompressionRatio({ ...s, pistonDomeCc: s.pistonDomeCc + f * vc })).toBeGreaterThan(r);
         const thinner = s.gasketThicknessMm * (1 - f);
         fc.pre(s.deckClearanceMm + thinner > 0);
         expect(staticCompressionRatio({ ...s, gasketThicknessMm: thinner })).toBeGreaterThan(r);
@@ -111,10 +115,11 @@ describe("properties", () => {
       fc.property(dynamicSpec, (s) => {
         const scr = staticCompressionRatio(s);
         expect(rel(dynamicCompressionRatio({ ...s, intakeClosesAbdcDeg: 0 }), scr)).toBeLessThan(1e-12);
-        fc.pre(s.intakeClosesAbdcDeg > 1e-6);
         const dcr = dynamicCompressionRatio(s);
-        expect(dcr).toBeLessThan(scr);
+        expect(dcr).toBeLessThanOrEqual(scr);
         expect(dcr).toBeGreaterThanOrEqual(1);
+        // strictly below once the closing is late enough for the difference to show in double precision
+        if (s.intakeClosesAbdcDeg >= 0.1) expect(dcr).toBeLessThan(scr);
       }),
     );
   });

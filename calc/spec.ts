@@ -6,8 +6,8 @@ import type { ErrorResult } from "./errors";
 import { fmt } from "./format";
 import {
   cylinderCcRaw,
+  heightAboveBdcRaw,
   peakSpeedAngleRaw,
-  pistonPositionRaw,
   pistonVelocityRaw,
 } from "./geometry";
 import type { Thresholds } from "./thresholds";
@@ -297,9 +297,10 @@ function compute(input: SpecInput): SpecOutcome {
 
   let dcr: number | null = null;
   let yIvc = 0;
-  if (scr !== null && vc !== null && B !== null && L !== null && l !== null && s.intakeClosesAbdcDeg !== null) {
-    yIvc = pistonPositionRaw(L / 2, l, (180 + s.intakeClosesAbdcDeg) * DEG);
-    dcr = (vc + cylinderCcRaw(B, yIvc)) / vc;
+  if (scr !== null && swept !== null && vc !== null && B !== null && L !== null && l !== null && s.intakeClosesAbdcDeg !== null) {
+    const above = heightAboveBdcRaw(L / 2, l, s.intakeClosesAbdcDeg);
+    yIvc = L - above;
+    dcr = (swept + vc - cylinderCcRaw(B, above)) / vc;
     if (!Number.isFinite(dcr)) return outOfRange("rodLengthMm");
   }
 
@@ -357,6 +358,7 @@ function compute(input: SpecInput): SpecOutcome {
 
 const VC_FORMULA = "V_c = V_chamber + (π/4)·B_g²·t + (π/4)·B²·h_deck − V_dome";
 const Y_FORMULA = "y = l + a − (a·cos θ + √(l² − a²·sin²θ)), a = L/2, θ = 180° + IVC";
+// DCR is computed as (V_d + V_c − (π/4)·B²·(L − y))/V_c, the same value without cancellation near BDC.
 const DCR_FORMULA = "DCR = (V_c + (π/4)·B²·y) / V_c";
 const PEAK_ANGLE_FORMULA = "θ* where d²y/dθ² = 0 (0° < θ* < 90°)";
 const PEAK_FORMULA = "S_p = ω · (a·sin θ* + a²·sin θ*·cos θ* / √(l² − a²·sin²θ*)), ω = 2πN/60";
