@@ -189,6 +189,7 @@ describe("properties", () => {
               expect(s.substituted).not.toMatch(/NaN|Infinity/);
             }
             for (const c of r.cautions) {
+              expect(c.message).not.toMatch(/NaN|undefined/);
               expect(Number.isFinite(c.value)).toBe(true);
               expect(Number.isFinite(c.limit)).toBe(true);
             }
@@ -198,6 +199,35 @@ describe("properties", () => {
               expect(typeof e.field).toBe("string");
               expect(e.message.length).toBeGreaterThan(0);
             }
+          }
+        },
+      ),
+      { numRuns: 2000 },
+    );
+  });
+
+  it("computeSpec gives finite figures or named errors for complete packages of any magnitude", () => {
+    const pos = fc.double({ min: Number.MIN_VALUE, max: Number.MAX_VALUE, noNaN: true });
+    fc.assert(
+      fc.property(
+        fc.record({
+          boreMm: pos,
+          strokeMm: pos,
+          chamberCc: pos,
+          gasketBoreMm: pos,
+          gasketThicknessMm: pos,
+          deckClearanceMm: fc.double({ noNaN: true, noDefaultInfinity: true }),
+          pistonDomeCc: fc.double({ noNaN: true, noDefaultInfinity: true }),
+          rodLengthMm: pos,
+          intakeClosesAbdcDeg: num(0, 179.999),
+          revLimitRpm: pos,
+        }),
+        (spec) => {
+          const r = computeSpec(spec);
+          if (r.ok) {
+            for (const v of Object.values(r.results)) expect(v === null || Number.isFinite(v)).toBe(true);
+          } else {
+            expect(r.errors.every((e) => e.field.length > 0 && e.message.length > 0)).toBe(true);
           }
         },
       ),

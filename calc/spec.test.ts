@@ -299,6 +299,8 @@ describe("invalid input is named, never NaN, never thrown", () => {
 
   it("figures too large to compute are an error, not Infinity", () => {
     expect(errorFields({ boreMm: 1e200, strokeMm: 1e200 })).toEqual(["boreMm"]);
+    expect(errorFields({ deckClearanceMm: 1e308, gasketThicknessMm: 1e308 })).toEqual(["gasketThicknessMm"]);
+    expect(errorFields({ strokeMm: 1e308, revLimitRpm: 1e308 })).toEqual(["revLimitRpm"]);
   });
 });
 

@@ -145,6 +145,10 @@ function outOfRange(field: string): ErrorResult {
   };
 }
 
+function ftMin(ms: number): string {
+  return fmt(msToFtMin(ms), 4);
+}
+
 function cautionsFor(r: SpecResults, t: Thresholds, rpm: number | null): Caution[] {
   const out: Caution[] = [];
   if (r.staticCr !== null && r.staticCr > t.staticCrMax) {
@@ -182,7 +186,7 @@ function cautionsFor(r: SpecResults, t: Thresholds, rpm: number | null): Caution
       limit: t.meanPistonSpeedMaxMs,
       field: "meanPistonSpeedMs",
       message:
-        `Mean piston speed${at} is ${fmt(r.meanPistonSpeedMs, 4)} m/s (${fmt(msToFtMin(r.meanPistonSpeedMs), 4)} ft/min), ` +
+        `Mean piston speed${at} is ${fmt(r.meanPistonSpeedMs, 4)} m/s (${ftMin(r.meanPistonSpeedMs)} ft/min), ` +
         `above ${fmt(t.meanPistonSpeedMaxMs, 4)} m/s. Confirm the rev limit with the piston, rod and crank makers' ratings.`,
     });
   }
@@ -194,7 +198,7 @@ function cautionsFor(r: SpecResults, t: Thresholds, rpm: number | null): Caution
       limit: t.peakPistonSpeedMaxMs,
       field: "peakPistonSpeedMs",
       message:
-        `Peak piston speed${at} is ${fmt(r.peakPistonSpeedMs, 4)} m/s (${fmt(msToFtMin(r.peakPistonSpeedMs), 4)} ft/min), ` +
+        `Peak piston speed${at} is ${fmt(r.peakPistonSpeedMs, 4)} m/s (${ftMin(r.peakPistonSpeedMs)} ft/min), ` +
         `above ${fmt(t.peakPistonSpeedMaxMs, 4)} m/s. Confirm the rev limit with the piston, rod and crank makers' ratings.`,
     });
   }
@@ -308,6 +312,7 @@ function compute(input: SpecInput): SpecOutcome {
     s.deckClearanceMm !== null && s.gasketThicknessMm !== null
       ? s.deckClearanceMm + s.gasketThicknessMm
       : null;
+  if (quench !== null && !Number.isFinite(quench)) return outOfRange("gasketThicknessMm");
 
   let rr: number | null = null;
   let peakDeg: number | null = null;
