@@ -71,6 +71,7 @@ export {
 export {
   validateSpec,
   SPEC_FIELDS,
+  FIELD_LABELS,
   DEFAULT_CYLINDERS,
   type SpecField,
   type SpecInput,

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import {
   DEFAULT_THRESHOLDS,
   DEFAULT_THRESHOLD_VALUES,
+  FIELD_LABELS,
   RESULT_INPUTS,
   SPEC_FIELDS,
   computeSpec,
@@ -197,6 +198,10 @@ describe("half-filled packages", () => {
     expect(Object.values(r.results).every((v) => v === null)).toBe(true);
     expect(r.missing).toEqual(SPEC_FIELDS.filter((f) => f !== "cylinders"));
     expect(r.steps.every((s) => s.substituted.startsWith("not computed: needs"))).toBe(true);
+  });
+
+  it("every input field has a label for screens", () => {
+    for (const f of SPEC_FIELDS) expect(FIELD_LABELS[f].length).toBeGreaterThan(3);
   });
 
   it("null counts as missing", () => {

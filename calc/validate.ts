@@ -92,6 +92,21 @@ export const SPEC_FIELDS: readonly SpecField[] = [
   "revLimitRpm",
 ];
 
+/** Names of the input fields for screens and messages, with their units. */
+export const FIELD_LABELS: { readonly [F in SpecField]: string } = {
+  boreMm: "bore (mm)",
+  strokeMm: "stroke (mm)",
+  cylinders: "cylinders",
+  chamberCc: "head chamber volume (cc)",
+  gasketBoreMm: "head gasket bore (mm)",
+  gasketThicknessMm: "head gasket compressed thickness (mm)",
+  deckClearanceMm: "deck clearance (mm, + below the deck)",
+  pistonDomeCc: "piston dome volume (cc, + dome, − dish)",
+  rodLengthMm: "rod length (mm)",
+  intakeClosesAbdcDeg: "intake closes (° after BDC, from the cam card)",
+  revLimitRpm: "rev limit (rpm)",
+};
+
 /** The fields that fix the clearance volume and static ratio (besides stroke). */
 export const CLEARANCE_FIELDS: readonly SpecField[] = [
   "boreMm",
