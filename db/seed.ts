@@ -7,10 +7,12 @@ import type { Kysely } from "kysely";
 import { createDb } from "./connect";
 import type { Database } from "./schema";
 import { seedCore } from "./seed/core";
+import { seedAuth } from "./seed/auth";
 
 export async function seed(db: Kysely<Database>) {
   await db.transaction().execute(async (trx) => {
     await seedCore(trx);
+    await seedAuth(trx);
   });
 }
 
