@@ -89,6 +89,7 @@ export {
   type Step,
   type SpecOk,
   type SpecOutcome,
+  type ComputeOptions,
 } from "./spec";
 export {
   solveDomeCcForRatio,

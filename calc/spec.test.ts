@@ -125,6 +125,18 @@ describe("computeSpec on a full package", () => {
   });
 });
 
+describe("figures without the worked steps", () => {
+  it("gives the same figures and cautions, and no steps", () => {
+    const a = ok(computeSpec(full));
+    const b = ok(computeSpec(full, { steps: false }));
+    expect(b.results).toEqual(a.results);
+    expect(b.cautions).toEqual(a.cautions);
+    expect(b.missing).toEqual(a.missing);
+    expect(b.steps).toEqual([]);
+    expect(ok(computeSpec(full, { steps: true })).steps).toHaveLength(a.steps.length);
+  });
+});
+
 describe("quench cautions", () => {
   it("too tight", () => {
     // common practice: below 0.030 in (0.762 mm) risks contact

@@ -109,6 +109,14 @@ export interface SpecOk {
 
 export type SpecOutcome = SpecOk | ErrorResult;
 
+export interface ComputeOptions {
+  /**
+   * Build the worked steps (default true). Pass false when only the figures and
+   * cautions are needed, e.g. checking many saved packages at once; `steps` is then [].
+   */
+  steps?: boolean | undefined;
+}
+
 /** General safety text for screens and sheets that show computed figures. */
 export const SAFETY_NOTE =
   "These figures are computed from the values entered. Limits for compression, piston speed and " +
@@ -237,9 +245,9 @@ function cautionsFor(r: SpecResults, t: Thresholds, rpm: number | null): Caution
  * input gives `{ ok: false, errors }`; missing input gives null results, listed in
  * `missing`, with steps that say what they need.
  */
-export function computeSpec(input: SpecInput): SpecOutcome {
+export function computeSpec(input: SpecInput, options?: ComputeOptions): SpecOutcome {
   try {
-    return compute(input);
+    return compute(input, options === undefined || options.steps !== false);
   } catch {
     return { ok: false, errors: [{ field: "spec", message: "could not be computed" }] };
   }
@@ -254,7 +262,7 @@ interface Work {
   omega: number;
 }
 
-function compute(input: SpecInput): SpecOutcome {
+function compute(input: SpecInput, withSteps: boolean): SpecOutcome {
   const v = validateSpec(input);
   if (!v.ok) return v;
   const s = v.spec;
@@ -356,7 +364,7 @@ function compute(input: SpecInput): SpecOutcome {
     ok: true,
     results,
     cautions: cautionsFor(results, s.thresholds, rpm),
-    steps: buildSteps(work),
+    steps: withSteps ? buildSteps(work) : [],
     missing: v.missing,
   };
 }

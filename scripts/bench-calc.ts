@@ -4,9 +4,10 @@
  * Prints figures only.
  */
 import { build } from "esbuild";
+import { cpus, loadavg } from "node:os";
 import { gzipSync } from "node:zlib";
 import { fileURLToPath } from "node:url";
-import { computeSpec, type SpecInput, type SpecOutcome } from "../calc/index";
+import { computeSpec, type ComputeOptions, type SpecInput, type SpecOutcome } from "../calc/index";
 
 const TYPICAL: SpecInput = {
   boreMm: 101.6, // 4.000 in
@@ -33,13 +34,13 @@ function use(r: SpecOutcome): void {
   } else sink += r.errors.length;
 }
 
-function measure(label: string, spec: SpecInput): void {
+function measure(label: string, spec: SpecInput, options?: ComputeOptions): void {
   const batch = 10_000;
-  for (let i = 0; i < 50_000; i++) use(computeSpec(spec)); // warm-up
+  for (let i = 0; i < 50_000; i++) use(computeSpec(spec, options)); // warm-up
   const perCall: number[] = [];
   for (let b = 0; b < 40; b++) {
     const t0 = process.hrtime.bigint();
-    for (let i = 0; i < batch; i++) use(computeSpec(spec));
+    for (let i = 0; i < batch; i++) use(computeSpec(spec, options));
     const t1 = process.hrtime.bigint();
     perCall.push(Number(t1 - t0) / batch);
   }
@@ -47,7 +48,7 @@ function measure(label: string, spec: SpecInput): void {
   const median = perCall[Math.floor(perCall.length / 2)] ?? NaN;
   const best = perCall[0] ?? NaN;
   console.log(
-    `${label}: median ${median.toFixed(0)} ns/call (best batch ${best.toFixed(0)} ns), ` +
+    `${label}:\n  median ${median.toFixed(0)} ns/call (best batch ${best.toFixed(0)} ns), ` +
       `${Math.round(1e9 / median).toLocaleString("en-US")} calls/s — target < 5000 ns`,
   );
 }
@@ -71,7 +72,13 @@ async function browserSize(): Promise<void> {
   );
 }
 
+console.log(
+  `node ${process.version}, ${cpus().length} CPU(s), load average ${loadavg()
+    .map((x) => x.toFixed(2))
+    .join(" ")} (figures are noisy on a busy machine; the best batch shows the unloaded cost)`,
+);
 measure("computeSpec, full package", TYPICAL);
 measure("computeSpec, bore and stroke only", HALF_FILLED);
+measure("computeSpec, full package, figures only ({ steps: false })", TYPICAL, { steps: false });
 await browserSize();
 if (sink === -1) console.log(sink);
