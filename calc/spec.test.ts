@@ -339,3 +339,15 @@ describe("validateSpec", () => {
     expect(v).toEqual({ ok: false, errors: [{ field: "strokeMm", message: "is required" }] });
   });
 });
+
+describe("worked steps show inputs without a floating-point tail", () => {
+  it("a bore entered in inches reads as millimetres to 9 significant figures", () => {
+    // 4.31 in × 25.4 = 109.474 mm exactly (1 in = 25.4 mm, NBS 1960 notice); in binary
+    // floating point the product is 109.47399999999999.
+    const r = computeSpec({ boreMm: 4.31 * 25.4, strokeMm: 114.3 });
+    if (!r.ok) throw new Error("expected ok");
+    const swept = r.steps.find((s) => s.id === "sweptVolume");
+    expect(swept?.substituted).toContain("(109.474 mm)²");
+    expect(swept?.substituted).not.toContain("99999");
+  });
+});

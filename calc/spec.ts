@@ -13,12 +13,16 @@ import {
 import type { Thresholds } from "./thresholds";
 import { CC_PER_CI, mmToIn, msToFtMin } from "./units";
 import {
+
   CLEARANCE_FIELDS,
   validateSpec,
   type CheckedSpec,
   type SpecField,
   type SpecInput,
 } from "./validate";
+
+/** An input as shown in a worked step: 9 significant figures, no floating-point tail. */
+const fin = (x: number | null | undefined): string => (x === null || x === undefined ? "" : fmt(x, 9));
 
 export interface SpecResults {
   /** Engine displacement, cc. */
@@ -185,7 +189,7 @@ function cautionsFor(r: SpecResults, t: Thresholds, rpm: number | null): Caution
         "confirm with the cam and piston makers' limits and your tuner.",
     });
   }
-  const at = rpm === null ? "" : ` at ${String(rpm)} rpm`;
+  const at = rpm === null ? "" : ` at ${fin(rpm)} rpm`;
   if (r.meanPistonSpeedMs !== null && r.meanPistonSpeedMs > t.meanPistonSpeedMaxMs) {
     out.push({
       code: "MEAN_PISTON_SPEED_HIGH",
@@ -386,14 +390,15 @@ function buildSteps(w: Work): Step[] {
   const L = s.strokeMm;
   const l = s.rodLengthMm;
   const rpm = s.revLimitRpm;
-  // Inputs are shown as entered; computed figures are rounded by fmt.
-  const fB = B === null ? "" : String(B);
-  const fL = L === null ? "" : String(L);
-  const fl = l === null ? "" : String(l);
-  const fa = L === null ? "" : String(L / 2);
+  // Inputs are shown to 9 significant figures (a value converted from inches keeps no
+  // floating-point tail); computed figures are rounded by fmt.
+  const fB = fin(B);
+  const fL = L === null ? "" : fin(L);
+  const fl = l === null ? "" : fin(l);
+  const fa = L === null ? "" : fin(L / 2);
   const fSwept = r.sweptVolumeCc === null ? "" : fmt(r.sweptVolumeCc);
-  const fDeck = String(s.deckClearanceMm);
-  const fThick = String(s.gasketThicknessMm);
+  const fDeck = fin(s.deckClearanceMm);
+  const fThick = fin(s.gasketThicknessMm);
 
   if (r.sweptVolumeCc !== null && r.displacementCc !== null && r.displacementCi !== null && r.boreStrokeRatio !== null) {
     steps.push(
@@ -442,14 +447,14 @@ function buildSteps(w: Work): Step[] {
   const vc = r.clearanceVolumeCc;
   const fVc = vc === null ? "" : fmt(vc);
   if (vc !== null) {
-    const fCh = String(s.chamberCc);
-    const fDome = String(s.pistonDomeCc);
+    const fCh = fin(s.chamberCc);
+    const fDome = fin(s.pistonDomeCc);
     steps.push({
       id: "clearanceVolume",
       label: "Clearance volume at TDC",
       formula: VC_FORMULA,
       substituted:
-        `${fCh} cc + (π/4) × (${String(s.gasketBoreMm)} mm)² × ${fThick} mm ÷ 1000` +
+        `${fCh} cc + (π/4) × (${fin(s.gasketBoreMm)} mm)² × ${fThick} mm ÷ 1000` +
         ` + (π/4) × (${fB} mm)² × ${fDeck} mm ÷ 1000 − ${fDome} cc` +
         ` = ${fCh} + ${fmt(w.gasketCc)} + ${fmt(w.deckCc)} − ${fDome}`,
       result: vc,
@@ -478,7 +483,7 @@ function buildSteps(w: Work): Step[] {
         id: "pistonAtIvc",
         label: "Piston below TDC when the intake closes",
         formula: Y_FORMULA,
-        substituted: `a = ${fa} mm, l = ${fl} mm, θ = 180° + ${String(s.intakeClosesAbdcDeg)}° = ${String(180 + s.intakeClosesAbdcDeg)}°`,
+        substituted: `a = ${fa} mm, l = ${fl} mm, θ = 180° + ${fin(s.intakeClosesAbdcDeg)}° = ${fin(180 + s.intakeClosesAbdcDeg)}°`,
         result: w.yIvc,
         unit: "mm",
       },
@@ -542,7 +547,7 @@ function buildSteps(w: Work): Step[] {
       id: "meanPistonSpeed",
       label: "Mean piston speed at the rev limit",
       formula: MEAN_FORMULA,
-      substituted: `2 × ${String(L / 1000)} m × ${String(rpm)} rpm ÷ 60`,
+      substituted: `2 × ${fin(L / 1000)} m × ${fin(rpm)} rpm ÷ 60`,
       result: r.meanPistonSpeedMs,
       unit: "m/s",
     });
@@ -554,7 +559,7 @@ function buildSteps(w: Work): Step[] {
       id: "peakPistonSpeed",
       label: "Peak piston speed at the rev limit",
       formula: PEAK_FORMULA,
-      substituted: `a = ${fa} mm, l = ${fl} mm, θ* = ${fmt(r.peakPistonSpeedCrankDeg)}°, ω = 2π × ${String(rpm)} ÷ 60 = ${fmt(w.omega)} rad/s`,
+      substituted: `a = ${fa} mm, l = ${fl} mm, θ* = ${fmt(r.peakPistonSpeedCrankDeg)}°, ω = 2π × ${fin(rpm)} ÷ 60 = ${fmt(w.omega)} rad/s`,
       result: r.peakPistonSpeedMs,
       unit: "m/s",
     });
