@@ -38,8 +38,8 @@ export interface PackageTable {
   /** Current revision's findings (Finding[] from app/lib/fit-rules.server.ts). */
   findings: JsonCol<unknown>;
   created_by: number | null;
-  created_at: Generated<Timestamp>;
-  updated_at: Generated<Timestamp>;
+  created_at: Timestamp;
+  updated_at: Timestamp;
 }
 
 export interface PackageRevisionTable {
@@ -53,7 +53,7 @@ export interface PackageRevisionTable {
   /** One line saying what this save changed ("Cylinder: 4.310 in big-bore kit"). */
   change: string;
   saved_by: number | null;
-  saved_at: Generated<Timestamp>;
+  saved_at: Timestamp;
 }
 
 export interface PackageStatusChangeTable {
@@ -62,13 +62,13 @@ export interface PackageStatusChangeTable {
   from_status: PackageStatus | null;
   to_status: PackageStatus;
   changed_by: number | null;
-  changed_at: Generated<Timestamp>;
+  changed_at: Timestamp;
 }
 
 export interface UserPreferenceTable {
   user_id: number;
   units: ColumnType<UnitSystem, UnitSystem | undefined, UnitSystem>;
-  updated_at: Generated<Timestamp>;
+  updated_at: Timestamp;
 }
 
 export interface PackageTables {
