@@ -9,11 +9,16 @@ import {
 } from "react-router";
 import type { Route } from "./+types/root";
 import { AppHeader } from "./components/app-header";
+import { getUser } from "./lib/auth.server";
+import { env } from "./lib/env.server";
+import { ensureJobWorkers } from "./lib/jobs.server";
 import "./app.css";
 
-export async function loader(_: Route.LoaderArgs) {
-  // Later features add the signed-in user here; the header reads it.
-  return { user: null as null | { name: string; role: string } };
+export async function loader({ request }: Route.LoaderArgs) {
+  // The first request a server answers starts its share of the job queue.
+  ensureJobWorkers();
+  const user = await getUser(request);
+  return { user, localMail: Boolean(env().LOCAL_MAIL_API_URL) };
 }
 
 export function Layout({ children }: { children: React.ReactNode }) {
@@ -28,7 +33,7 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <Links />
       </head>
       <body className="min-h-screen bg-steel-50 text-graphite antialiased">
-        <AppHeader user={data?.user ?? null} />
+        <AppHeader user={data?.user ?? null} localMail={data?.localMail ?? false} />
         {children}
         <ScrollRestoration />
         <Scripts />

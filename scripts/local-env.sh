@@ -20,6 +20,12 @@ export TW_MAIL_API_PORT="${TW_MAIL_API_PORT:-2527}"
 export TW_S3_PORT="${TW_S3_PORT:-4569}"
 export TW_PAY_PORT="${TW_PAY_PORT:-12111}"
 
+# Mail goes to the local catcher (and /dev/outbox shows it) unless SMTP_URL names a real server.
+if [ -z "${SMTP_URL:-}" ]; then
+  export SMTP_URL="smtp://127.0.0.1:$TW_SMTP_PORT"
+  export LOCAL_MAIL_API_URL="${LOCAL_MAIL_API_URL:-http://127.0.0.1:$TW_MAIL_API_PORT}"
+fi
+
 ensure_node_modules() {
   if [ ! -d "$ROOT/node_modules" ] || [ "$ROOT/package-lock.json" -nt "$ROOT/node_modules/.package-lock.json" ]; then
     echo "setup: installing npm packages (npm ci)…"

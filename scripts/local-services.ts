@@ -2,11 +2,20 @@
 // Each service registers itself below; the process writes a ready file listing what runs.
 import { writeFileSync } from "node:fs";
 import path from "node:path";
+import { startMailCatcher } from "./services/mail-catcher";
 
 type Started = { name: string; url: string; stop: () => Promise<void> };
 type Starter = () => Promise<Started>;
 
-const starters: Starter[] = [];
+const starters: Starter[] = [
+  async () => {
+    const mail = await startMailCatcher({
+      smtpPort: Number(process.env.TW_SMTP_PORT ?? 2526),
+      apiPort: Number(process.env.TW_MAIL_API_PORT ?? 2527),
+    });
+    return { name: "mail (smtp, api)", url: `${mail.smtpUrl}, ${mail.apiUrl}`, stop: mail.stop };
+  },
+];
 
 async function main() {
   const runDir = process.env.TW_RUN_DIR ?? path.resolve(".data/run");

@@ -1,14 +1,31 @@
-import { NavLink } from "react-router";
+import { Form, NavLink } from "react-router";
+import { can, ROLE_LABELS, type Permission, type Role } from "~/lib/permissions";
 
 export type NavItem = { to: string; label: string };
 
-// Later features add their sections here, each shown only to the roles that may use it.
-export function navFor(_role: string | null): NavItem[] {
-  return [{ to: "/", label: "Home" }];
+// Each section is shown only to the roles that may use it (the same `can` the server asks).
+// Add an entry here once its route exists.
+const SECTIONS: (NavItem & { permission: Permission; localMailOnly?: boolean })[] = [
+  { to: "/", label: "Home", permission: "home:read" },
+  { to: "/staff", label: "Staff", permission: "staff:manage" },
+  { to: "/dev/outbox", label: "Outbox", permission: "outbox:read", localMailOnly: true },
+];
+
+export function navFor(role: Role | string | null, opts: { localMail?: boolean } = {}): NavItem[] {
+  if (!role) return [];
+  return SECTIONS.filter((s) => can(role as Role, s.permission) && (!s.localMailOnly || opts.localMail)).map(
+    ({ to, label }) => ({ to, label }),
+  );
 }
 
-export function AppHeader({ user }: { user: { name: string; role: string } | null }) {
-  const items = navFor(user?.role ?? null);
+export function AppHeader({
+  user,
+  localMail = false,
+}: {
+  user: { name: string; role: Role | string } | null;
+  localMail?: boolean;
+}) {
+  const items = navFor(user?.role ?? null, { localMail });
   return (
     <header className="bg-ink text-steel-50">
       <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-8 gap-y-2 px-4 py-3">
@@ -33,9 +50,20 @@ export function AppHeader({ user }: { user: { name: string; role: string } | nul
           ))}
         </nav>
         {user ? (
-          <p className="text-sm text-steel-100">
-            {user.name} <span className="text-steel-300">· {user.role.replace("_", " ")}</span>
-          </p>
+          <div className="flex items-center gap-3">
+            <p className="text-sm text-steel-100" aria-label="Signed in as">
+              <span className="font-semibold text-white">{user.name}</span>{" "}
+              <span className="text-steel-200">· {ROLE_LABELS[user.role as Role] ?? user.role}</span>
+            </p>
+            <Form method="post" action="/logout">
+              <button
+                type="submit"
+                className="rounded border border-steel-500 px-3 py-1 text-sm font-medium text-steel-50 hover:bg-graphite"
+              >
+                Sign out
+              </button>
+            </Form>
+          </div>
         ) : null}
       </div>
     </header>

@@ -1,0 +1,60 @@
+import { Link } from "react-router";
+import type { Route } from "./+types/dev.outbox";
+import { requirePermission } from "~/lib/auth.server";
+import { fetchOutbox, requireLocalMail, type OutboxSummary } from "~/lib/outbox.server";
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const base = requireLocalMail();
+  await requirePermission(request, "outbox:read");
+  const res = await fetchOutbox<OutboxSummary[]>(base, "/messages");
+  return res.ok ? { messages: res.value, problem: null } : { messages: [], problem: res.reason };
+}
+
+const timeFmt = new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeStyle: "medium", timeZone: "UTC" });
+
+export default function Outbox({ loaderData }: Route.ComponentProps) {
+  const { messages, problem } = loaderData;
+  return (
+    <main className="mx-auto max-w-5xl px-4 py-8">
+      <p className="text-sm font-semibold uppercase tracking-widest text-steel-700">Local mail server</p>
+      <h1 className="mt-1 text-3xl font-semibold text-ink">Outbox</h1>
+      <p className="mt-1 text-steel-700">
+        Every e-mail the app sent while running on this machine. Nothing here left the machine.
+      </p>
+      {problem ? (
+        <p role="alert" className="mt-6 rounded border border-amber bg-white px-3 py-2 text-amber-text">
+          The local mail server cannot be reached ({problem}). Mail waits in the queue and goes out when it is back.
+        </p>
+      ) : messages.length === 0 ? (
+        <p className="mt-6 rounded border border-steel-200 bg-white p-4 text-steel-700">No e-mail has been sent yet.</p>
+      ) : (
+        <table className="mt-6 w-full border-collapse overflow-hidden rounded border border-steel-200 bg-white text-left text-sm">
+          <thead className="bg-steel-100 text-steel-700">
+            <tr>
+              <th className="px-3 py-2 font-semibold">Received (UTC)</th>
+              <th className="px-3 py-2 font-semibold">To</th>
+              <th className="px-3 py-2 font-semibold">Subject</th>
+            </tr>
+          </thead>
+          <tbody>
+            {messages.map((m) => (
+              <tr key={m.id} className="border-t border-steel-100">
+                <td className="num whitespace-nowrap px-3 py-2 text-steel-700">{timeFmt.format(new Date(m.receivedAt))}</td>
+                <td className="px-3 py-2">{m.to.join(", ")}</td>
+                <td className="px-3 py-2">
+                  <Link to={`/dev/outbox/${m.id}`} className="font-medium text-teal-text underline">
+                    {m.subject || "(no subject)"}
+                  </Link>
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+    </main>
+  );
+}
+
+export function meta(_: Route.MetaArgs) {
+  return [{ title: "Outbox · Torquewright" }];
+}

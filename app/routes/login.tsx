@@ -1,0 +1,73 @@
+import { getFormProps, useForm } from "@conform-to/react";
+import { parseWithZod } from "@conform-to/zod/v4";
+import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/login";
+import { AuthCard, FormAlert, SubmitButton, TextField } from "~/components/auth-form";
+import { authenticator, getUser, safeRedirect, SignInError } from "~/lib/auth.server";
+import { getDb } from "~/lib/db.server";
+import { requireSameOrigin } from "~/lib/origin.server";
+import { createSession } from "~/lib/session.server";
+
+export const LoginSchema = z.object({
+  email: z.email("Enter the e-mail address of your staff account."),
+  password: z.string("Enter your password.").min(1, "Enter your password."),
+  redirectTo: z.string().optional(),
+});
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await getUser(request);
+  if (user) throw redirect(safeRedirect(new URL(request.url).searchParams.get("redirectTo")));
+  return null;
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  requireSameOrigin(request);
+  // The form strategy reads the body itself, so parse a copy.
+  const submission = parseWithZod(await request.clone().formData(), { schema: LoginSchema });
+  if (submission.status !== "success") {
+    return data({ result: submission.reply({ hideFields: ["password"] }) }, { status: 400 });
+  }
+  try {
+    const user = await authenticator.authenticate("password", request);
+    const setCookie = await createSession(getDb(), user.id);
+    return redirect(safeRedirect(submission.value.redirectTo), { headers: { "Set-Cookie": setCookie } });
+  } catch (e) {
+    if (!(e instanceof SignInError)) throw e;
+    const result = submission.reply({ formErrors: [e.message], hideFields: ["password"] });
+    return e.retryAfterSeconds > 0
+      ? data({ result }, { status: 429, headers: { "Retry-After": String(e.retryAfterSeconds) } })
+      : data({ result }, { status: 401 });
+  }
+}
+
+export default function Login({ actionData }: Route.ComponentProps) {
+  const [params] = useSearchParams();
+  const navigation = useNavigation();
+  const [form, fields] = useForm({
+    lastResult: actionData?.result,
+    onValidate: ({ formData }) => parseWithZod(formData, { schema: LoginSchema }),
+    shouldValidate: "onSubmit",
+    shouldRevalidate: "onBlur",
+  });
+  return (
+    <AuthCard title="Sign in" lead="Staff accounts of the shop. Customers open the link in their quote e-mail instead.">
+      <Form method="post" {...getFormProps(form)} className="space-y-4">
+        <FormAlert id={form.errorId} errors={form.errors} />
+        <input type="hidden" name="redirectTo" value={params.get("redirectTo") ?? ""} />
+        <TextField label="E-mail" field={fields.email} type="email" autoComplete="username" autoFocus />
+        <TextField label="Password" field={fields.password} type="password" autoComplete="current-password" />
+        <SubmitButton busy={navigation.state !== "idle"}>Sign in</SubmitButton>
+      </Form>
+      <p className="mt-4 text-sm">
+        <Link to="/reset" className="font-medium text-teal-text underline">
+          Forgot your password?
+        </Link>
+      </p>
+    </AuthCard>
+  );
+}
+
+export function meta(_: Route.MetaArgs) {
+  return [{ title: "Sign in · Torquewright" }];
+}
