@@ -8,11 +8,13 @@ import { createDb } from "./connect";
 import type { Database } from "./schema";
 import { seedCore } from "./seed/core";
 import { seedAuth } from "./seed/auth";
+import { seedCatalog } from "./seed/catalog";
 
 export async function seed(db: Kysely<Database>) {
   await db.transaction().execute(async (trx) => {
     await seedCore(trx);
     await seedAuth(trx);
+    await seedCatalog(trx);
   });
 }
 

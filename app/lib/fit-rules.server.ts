@@ -197,3 +197,107 @@ export function previewAgainst(
   }
   return out;
 }
+
+// ---- the rule store: every change is a new version row ----
+
+type Db = Kysely<Database>;
+
+/** Runs fn in a transaction, or in the caller's one when db already is a transaction. */
+function inTransaction<T>(db: Db, fn: (trx: Db) => Promise<T>): Promise<T> {
+  return db.isTransaction ? fn(db) : db.transaction().execute((trx) => fn(trx));
+}
+
+export type RuleFields = { name: string; kind: RuleKind; condition: string; message: string; upgrade_category: string | null; suggested_part_id: number | null; active: boolean };
+
+export async function listRules(db: Db) {
+  return db
+    .selectFrom("fit_rules")
+    .leftJoin("users", "users.id", "fit_rules.updated_by")
+    .selectAll("fit_rules")
+    .select("users.name as updated_by_name")
+    .orderBy("fit_rules.active", "desc")
+    .orderBy("fit_rules.kind")
+    .orderBy("fit_rules.name")
+    .execute();
+}
+
+export async function getRule(db: Db, id: number) {
+  if (!Number.isSafeInteger(id) || id <= 0) return undefined;
+  return db
+    .selectFrom("fit_rules")
+    .leftJoin("users", "users.id", "fit_rules.updated_by")
+    .selectAll("fit_rules")
+    .select("users.name as updated_by_name")
+    .where("fit_rules.id", "=", id)
+    .executeTakeFirst();
+}
+
+export async function getRuleHistory(db: Db, id: number) {
+  return db
+    .selectFrom("fit_rule_versions")
+    .leftJoin("users", "users.id", "fit_rule_versions.changed_by")
+    .selectAll("fit_rule_versions")
+    .select("users.name as changed_by_name")
+    .where("rule_id", "=", id)
+    .orderBy("version", "desc")
+    .execute();
+}
+
+async function writeRuleVersion(db: Db, rule: RuleFields & { id: number; version: number }, note: string, userId: number | null) {
+  await db
+    .insertInto("fit_rule_versions")
+    .values({
+      rule_id: rule.id,
+      version: rule.version,
+      name: rule.name,
+      kind: rule.kind,
+      condition: rule.condition,
+      message: rule.message,
+      upgrade_category: rule.upgrade_category,
+      suggested_part_id: rule.suggested_part_id,
+      active: rule.active,
+      change_note: note,
+      changed_by: userId,
+    })
+    .execute();
+}
+
+/** Stores a new rule after its condition passes the checker. */
+export async function createRule(db: Db, fields: RuleFields, userId: number | null, note = "Created") {
+  const check = compileConditionText(fields.condition);
+  if (!check.ok) return { ok: false as const, check };
+  const rule = await inTransaction(db, async (trx) => {
+    const row = await trx.insertInto("fit_rules").values({ ...fields, updated_by: userId }).returningAll().executeTakeFirstOrThrow();
+    await writeRuleVersion(trx, row, note, userId);
+    return row;
+  });
+  return { ok: true as const, rule };
+}
+
+/** Saves a new version; `stale` when someone saved the rule since `expectedVersion`. */
+export async function updateRule(db: Db, id: number, fields: RuleFields, expectedVersion: number | null, userId: number | null, note: string) {
+  const check = compileConditionText(fields.condition);
+  if (!check.ok) return { ok: false as const, check };
+  return inTransaction(db, async (trx) => {
+    const before = await trx.selectFrom("fit_rules").selectAll().where("id", "=", id).forUpdate().executeTakeFirst();
+    if (!before) return { ok: false as const, missing: true as const };
+    if (expectedVersion !== null && before.version !== expectedVersion) return { ok: false as const, stale: before.version };
+    const rule = await trx
+      .updateTable("fit_rules")
+      .set({ ...fields, version: before.version + 1, updated_at: sql`now()`, updated_by: userId })
+      .where("id", "=", id)
+      .returningAll()
+      .executeTakeFirstOrThrow();
+    await writeRuleVersion(trx, rule, note || describeRuleChange(before, rule), userId);
+    return { ok: true as const, rule };
+  });
+}
+
+const RULE_FIELD_WORDS: Record<string, string> = { upgrade_category: "upgrade category", suggested_part_id: "suggested part" };
+
+export function describeRuleChange(a: Partial<RuleFields>, b: Partial<RuleFields>): string {
+  const keys = ["name", "kind", "condition", "message", "upgrade_category", "suggested_part_id", "active"] as const;
+  const changed = keys.filter((k) => a[k] !== b[k]);
+  if (changed.length === 1 && changed[0] === "active") return b.active ? "Switched on" : "Switched off";
+  return changed.length ? `Changed ${changed.map((k) => RULE_FIELD_WORDS[k] ?? k).join(", ")}` : "Saved without changes";
+}

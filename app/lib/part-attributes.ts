@@ -100,3 +100,47 @@ export function camelToSnake(key: string): string {
 export function snakeToCamel(key: string): string {
   return key.replace(/_([a-z0-9])/g, (_, c: string) => c.toUpperCase());
 }
+
+export const TAG_PATTERN = /^[a-z0-9][a-z0-9-]{0,47}$/;
+export const PART_NUMBER_PATTERN = /^[A-Za-z0-9][A-Za-z0-9._/-]{0,39}$/;
+
+/** Free words from a text box or CSV cell ("a, b | c d") → lower-case tags. */
+export function splitTags(text: string | undefined | null): string[] {
+  return [...new Set((text ?? "").split(/[\s,|;]+/).map((t) => t.trim().toLowerCase()).filter(Boolean))];
+}
+
+/** The part form (and CSV row) for one category; categories lists the slugs that exist. */
+export function partSchemaFor(category: string, categories: readonly string[]) {
+  return z.object({
+    part_number: z
+      .string({ error: "Enter the shop's part number" })
+      .trim()
+      .regex(PART_NUMBER_PATTERN, "Part numbers are 1–40 letters, digits and . _ / -, starting with a letter or digit"),
+    category: z.string({ error: "Choose a category" }).refine((c) => categories.includes(c), "Choose one of the listed categories"),
+    maker: z.string({ error: "Enter the maker" }).trim().min(1, "Enter the maker").max(80, "Keep the maker under 80 characters"),
+    name: z.string({ error: "Enter a name" }).trim().min(1, "Enter a name").max(120, "Keep the name under 120 characters"),
+    price: z
+      .number({ error: (i) => (i.input === undefined ? "Enter the price in dollars (0 for none)" : "Price must be a number") })
+      .min(0, "Price cannot be negative")
+      .max(100_000, "Price must be under $100,000"),
+    labour_hours: z
+      .number({ error: "Labour hours must be a number" })
+      .min(0, "Labour hours cannot be negative")
+      .max(200, "Labour hours must be 200 or fewer")
+      .default(0),
+    tags: z
+      .string()
+      .optional()
+      .transform((t) => splitTags(t))
+      .superRefine((tags, ctx) => {
+        const bad = tags.find((t) => !TAG_PATTERN.test(t));
+        if (bad) ctx.addIssue({ code: "custom", message: `"${bad.slice(0, 50)}" is not a tag: use lower-case letters, digits and dashes (up to 48)` });
+        if (tags.length > 20) ctx.addIssue({ code: "custom", message: "Up to 20 tags per part" });
+      }),
+    stock: z.boolean().default(false),
+    notes: z.string().trim().max(2000, "Keep notes under 2000 characters").default(""),
+    attributes: attributeSchemaFor(category).optional().default({}),
+  });
+}
+
+export type PartInput = z.output<ReturnType<typeof partSchemaFor>>;
