@@ -12,6 +12,11 @@ export const LAST_OWNER =
 
 export class StaffRuleError extends Error {}
 
+// Runs `fn` in the caller's transaction when there is one, else in a new one.
+function inTransaction<T>(db: Db, fn: (trx: Db) => Promise<T>): Promise<T> {
+  return db.isTransaction ? fn(db) : db.transaction().execute(fn);
+}
+
 export async function listStaff(db: Db) {
   return db
     .selectFrom("users")
@@ -93,7 +98,7 @@ async function activeOwnersOtherThan(db: Db, userId: number): Promise<number> {
 }
 
 export async function changeRole(db: Db, userId: number, role: Role) {
-  await db.transaction().execute(async (trx) => {
+  await inTransaction(db, async (trx) => {
     const user = await trx.selectFrom("users").where("id", "=", userId).selectAll().forUpdate().executeTakeFirst();
     if (!user) throw new StaffRuleError("That account no longer exists.");
     if (user.role === "owner" && role !== "owner" && !user.disabled_at && (await activeOwnersOtherThan(trx, userId)) === 0) {
@@ -104,7 +109,7 @@ export async function changeRole(db: Db, userId: number, role: Role) {
 }
 
 export async function setDisabled(db: Db, userId: number, disabled: boolean) {
-  await db.transaction().execute(async (trx) => {
+  await inTransaction(db, async (trx) => {
     const user = await trx.selectFrom("users").where("id", "=", userId).selectAll().forUpdate().executeTakeFirst();
     if (!user) throw new StaffRuleError("That account no longer exists.");
     if (disabled && user.role === "owner" && !user.disabled_at && (await activeOwnersOtherThan(trx, userId)) === 0) {

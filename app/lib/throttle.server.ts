@@ -4,7 +4,7 @@ import { env } from "./env.server";
 
 export const THROTTLE_WINDOW_SECONDS = 15 * 60;
 export const MAX_ACCOUNT_FAILURES = 5;
-export const MAX_ADDRESS_FAILURES = 20;
+export const MAX_ADDRESS_FAILURES = 30;
 
 /** The client's address: X-Forwarded-For only behind our own proxy, else loopback. */
 export function clientAddress(request: Request, trustProxy = env().TRUST_PROXY === "1"): string {

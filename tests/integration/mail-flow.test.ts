@@ -181,6 +181,23 @@ describe("the mail queue", () => {
   });
 });
 
+describe("scheduled clean-up", () => {
+  it("is scheduled every 15 minutes and removes expired sessions", async () => {
+    const { getBoss, QUEUES } = await import("~/lib/jobs.server");
+    const schedules = await (await getBoss()).getSchedules();
+    expect(schedules.find((s) => s.name === QUEUES.cleanup)?.cron).toBe("*/15 * * * *");
+
+    const { runCleanup } = await import("~/lib/cleanup.server");
+    const { cookieFor } = await import("../support/auth");
+    const user = await createTestUser(getDb(), "apprentice");
+    await cookieFor(user);
+    await getDb().updateTable("sessions").set({ expires_at: new Date(Date.now() - 60_000) }).where("user_id", "=", user.id).execute();
+    const result = await runCleanup(getDb());
+    expect(result.sessions).toBeGreaterThanOrEqual(1);
+    expect(await getDb().selectFrom("sessions").where("user_id", "=", user.id).selectAll().execute()).toHaveLength(0);
+  });
+});
+
 describe("/dev/outbox", () => {
   it("lists caught mail for the owner and shows one message with its links", async () => {
     const owner = await createTestUser(getDb(), "owner");
