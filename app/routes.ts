@@ -11,5 +11,12 @@ export default [
   route("staff", "routes/staff.tsx"),
   route("dev/outbox", "routes/dev.outbox.tsx"),
   route("dev/outbox/:id", "routes/dev.outbox.$id.tsx"),
+  route("packages", "routes/packages.tsx"),
+  route("packages/new", "routes/packages.new.tsx"),
+  route("packages/:id", "routes/packages.$id.tsx"),
+  route("packages/:id/bench", "routes/packages.$id.bench.tsx"),
+  route("api/parts", "routes/api.parts.ts"),
+  route("api/packages/:id", "routes/api.packages.$id.ts"),
+  route("api/calc", "routes/api.calc.ts"),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

@@ -399,7 +399,8 @@ export async function saveRevision(
   return staleDetails(db, input.packageId, input.expectedRevision);
 }
 
-async function staleDetails(db: Db, packageId: number, baseRevision: number): Promise<SaveOutcome> {
+/** Why a save on `baseRevision` is stale: what changed since, who saved it and when. */
+export async function staleDetails(db: Db, packageId: number, baseRevision: number): Promise<SaveOutcome> {
   const current = await db
     .selectFrom("packages as p")
     .innerJoin("package_revisions as r", (j) => j.onRef("r.package_id", "=", "p.id").onRef("r.revision", "=", "p.current_revision"))

@@ -1,0 +1,113 @@
+// The bench's edits in the browser: each action is shown at once (calc/ on the spec with
+// every pending action applied), sent one at a time to the route's action with the
+// revision it is based on, and replaced by the server's answer. A stale refusal keeps
+// the user's pending actions so they can be applied on top of the newer revision.
+import { useEffect, useMemo, useRef, useState } from "react";
+import { useFetcher } from "react-router";
+import { applyIntent, computeBench, resolveFields, toCalcInput, type BenchIntent, type BenchPart } from "./bench";
+import type { BenchActionResult } from "./bench-action.server";
+import type { BenchState } from "./packages.server";
+
+export interface QueuedAction {
+  /** what the action does, for the optimistic figures (null when it cannot be read yet) */
+  intent: BenchIntent | null;
+  /** the form fields posted to the server */
+  fields: Record<string, string>;
+  /** where its error is shown */
+  key: string;
+}
+
+export type StaleInfo = Extract<BenchActionResult, { stale: unknown }>;
+
+export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[]) {
+  const fetcher = useFetcher<BenchActionResult>({ key: `bench-${initial.packageId}` });
+  const [base, setBase] = useState<BenchState>(initial);
+  const [queue, setQueue] = useState<QueuedAction[]>([]);
+  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const [conflict, setConflict] = useState<{ info: StaleInfo; mine: QueuedAction[] } | null>(null);
+  const [parts, setParts] = useState<Map<number, BenchPart>>(() => new Map([...partsFromLoader, ...initial.parts].map((p) => [p.id, p])));
+  const inFlight = useRef<QueuedAction | null>(null);
+
+  const remember = (more: BenchPart[]) =>
+    setParts((prev) => {
+      if (more.every((p) => prev.has(p.id))) return prev;
+      const next = new Map(prev);
+      for (const p of more) next.set(p.id, p);
+      return next;
+    });
+
+  // the server's answer to the action in flight
+  useEffect(() => {
+    if (fetcher.state !== "idle" || !inFlight.current) return;
+    const sent = inFlight.current;
+    inFlight.current = null;
+    const answer = fetcher.data;
+    if (!answer) {
+      setQueue((q) => q.slice(1));
+      setErrors((e) => ({ ...e, [sent.key]: ["The server did not answer; the change was not saved. Try again."] }));
+      return;
+    }
+    if (answer.ok) {
+      setBase(answer.state);
+      remember(answer.state.parts);
+      setErrors((e) => {
+        const { [sent.key]: _gone, form: _form, ...rest } = e;
+        return rest;
+      });
+      setQueue((q) => q.slice(1));
+    } else if ("stale" in answer) {
+      setQueue((q) => {
+        setConflict({ info: answer, mine: q });
+        return [];
+      });
+      setBase(answer.current);
+      remember(answer.current.parts);
+    } else {
+      setErrors((e) => ({ ...e, ...answer.errors }));
+      setQueue((q) => q.slice(1));
+    }
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [fetcher.state, fetcher.data]);
+
+  // send the next action once the previous one is answered
+  useEffect(() => {
+    if (inFlight.current || fetcher.state !== "idle" || queue.length === 0 || conflict) return;
+    const next = queue[0]!;
+    inFlight.current = next;
+    fetcher.submit({ ...next.fields, expectedRevision: String(base.revision) }, { method: "post" });
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [queue, fetcher.state, conflict, base.revision]);
+
+  const spec = useMemo(() => queue.reduce((s, a) => (a.intent ? applyIntent(s, a.intent) : s), base.spec), [base.spec, queue]);
+  const computation = useMemo(
+    () => (queue.length === 0 ? base.computation : computeBench(toCalcInput(spec, resolveFields(spec, parts)))),
+    [queue.length, base.computation, spec, parts],
+  );
+
+  return {
+    base,
+    spec,
+    computation,
+    parts,
+    remember,
+    pending: queue.length > 0,
+    errors,
+    conflict,
+    submit(action: QueuedAction) {
+      setErrors((e) => {
+        const { [action.key]: _gone, ...rest } = e;
+        return rest;
+      });
+      setQueue((q) => [...q, action]);
+    },
+    /** Sends the refused actions again, now based on the newer revision. */
+    applyMineOnTop() {
+      if (!conflict) return;
+      setQueue(conflict.mine);
+      setConflict(null);
+    },
+    discardMine() {
+      setConflict(null);
+    },
+  };
+}

@@ -1,0 +1,30 @@
+import type { Route } from "./+types/api.packages.$id";
+import { requirePermission } from "~/lib/auth.server";
+import { getDb } from "~/lib/db.server";
+import { can } from "~/lib/permissions";
+import { getBenchState, getPackageHeader } from "~/lib/packages.server";
+
+// GET /api/packages/:id — the package with its current revision's figures and findings.
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requirePermission(request, "packages:read");
+  const db = getDb();
+  const id = Number(params.id);
+  const header = Number.isInteger(id) && id > 0 ? await getPackageHeader(db, id) : null;
+  const state = header ? await getBenchState(db, id, can(user.role, "prices:read")) : null;
+  if (!header || !state) return Response.json({ error: "No package with this number." }, { status: 404 });
+  const { computation, findings, spec, parts, revision, savedAt, savedBy } = state;
+  return Response.json(
+    {
+      package: header,
+      revision: { number: revision, savedAt, savedBy },
+      spec,
+      parts,
+      results: computation.results,
+      cautions: computation.cautions,
+      missing: computation.missing,
+      inputErrors: computation.inputErrors,
+      findings,
+    },
+    { headers: { "Cache-Control": "private, no-store" } },
+  );
+}
