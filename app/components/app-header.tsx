@@ -7,6 +7,7 @@ export type NavItem = { to: string; label: string };
 // Add an entry here once its route exists.
 const SECTIONS: (NavItem & { permission: Permission; localMailOnly?: boolean })[] = [
   { to: "/", label: "Home", permission: "home:read" },
+  { to: "/packages", label: "Packages", permission: "packages:read" },
   { to: "/staff", label: "Staff", permission: "staff:manage" },
   { to: "/dev/outbox", label: "Outbox", permission: "outbox:read", localMailOnly: true },
 ];

@@ -62,6 +62,18 @@ export const ROWS: Row[] = [
   { path: "/staff", method: "POST", body: { intent: "invite", email: "" }, expect: staffOnly("owner") },
   { path: "/dev/outbox", expect: staffOnly("owner") },
   { path: "/dev/outbox/999999", expect: { ...staffOnly("owner"), owner: 404 } },
+  { path: "/packages", expect: staffOnly("owner", "builder", "service_writer") },
+  { path: "/packages/new", expect: staffOnly("owner", "builder", "service_writer") },
+  { path: "/packages/new", method: "POST", body: { mode: "scratch", name: "" }, expect: staffOnly("owner", "builder", "service_writer") },
+  { path: "/packages/999999", expect: { ...staffOnly("owner", "builder", "service_writer"), owner: 404, builder: 404, service_writer: 404 } },
+  { path: "/packages/999999", method: "POST", body: { intent: "status", to: "quoted" }, expect: staffOnly("owner", "builder", "service_writer") },
+  { path: "/packages/999999", method: "POST", body: { intent: "restore", revision: "1", expectedRevision: "1" }, expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 } },
+  { path: "/packages/999999/bench", expect: { ...staffOnly("owner", "builder", "service_writer"), owner: 404, builder: 404, service_writer: 404 } },
+  { path: "/packages/999999/bench", method: "POST", body: { intent: "set-units", units: "metric" }, expect: staffOnly("owner", "builder", "service_writer") },
+  { path: "/packages/999999/bench", method: "POST", body: { intent: "clear-slot", slot: "cam", expectedRevision: "1" }, expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 } },
+  { path: "/api/parts", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
+  { path: "/api/packages/999999", expect: { ...staffOnly("owner", "builder", "service_writer"), owner: 404, builder: 404, service_writer: 404 } },
+  { path: "/api/calc", method: "POST", body: { boreMm: "x" }, expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
   { path: "/no-such-page", expect: all(404) },
 ];
 
