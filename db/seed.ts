@@ -9,12 +9,14 @@ import type { Database } from "./schema";
 import { seedCore } from "./seed/core";
 import { seedAuth } from "./seed/auth";
 import { seedCatalog } from "./seed/catalog";
+import { seedPackages } from "./seed/packages";
 
 export async function seed(db: Kysely<Database>) {
   await db.transaction().execute(async (trx) => {
     await seedCore(trx);
     await seedAuth(trx);
     await seedCatalog(trx);
+    await seedPackages(trx);
   });
 }
 

@@ -22,6 +22,11 @@ import { evaluateRules, loadActiveRules, type Finding } from "./fit-rules.server
 
 export type { Finding };
 
+/** Runs `fn` in a transaction, or in the caller's one when `db` already is one (the seed). */
+function inTransaction<T>(db: Db, fn: (trx: Db) => Promise<T>): Promise<T> {
+  return db.isTransaction ? fn(db) : db.transaction().execute((trx) => fn(trx));
+}
+
 /** Which status may follow which. Cancelled packages can be reopened as drafts. */
 export const STATUS_TRANSITIONS: Record<PackageStatus, PackageStatus[]> = {
   draft: ["quoted", "cancelled"],
@@ -294,7 +299,7 @@ export interface NewPackageInput {
 
 export async function createPackage(db: Db, input: NewPackageInput, userId: number | null): Promise<number> {
   const ev = await evaluateSpec(db, input.spec ?? emptySpec());
-  return db.transaction().execute(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const { id } = await trx
       .insertInto("packages")
       .values({
@@ -363,7 +368,7 @@ export async function saveRevision(
 ): Promise<SaveOutcome> {
   const ev = evaluation ?? (await evaluateSpec(db, input.spec));
   const next = input.expectedRevision + 1;
-  const saved = await db.transaction().execute(async (trx) => {
+  const saved = await inTransaction(db, async (trx) => {
     const updated = await trx
       .updateTable("packages")
       .set({
@@ -515,7 +520,7 @@ export async function restoreRevision(db: Db, packageId: number, revision: numbe
 }
 
 export async function changeStatus(db: Db, packageId: number, to: PackageStatus, userId: number): Promise<{ ok: true } | { ok: false; message: string }> {
-  return db.transaction().execute(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await trx.selectFrom("packages").select(["status", "is_template"]).where("id", "=", packageId).forUpdate().executeTakeFirst();
     if (!row) return { ok: false, message: "This package no longer exists." };
     if (row.is_template) return { ok: false, message: "A shop template has no status of its own; copy it into a package for a bike." };
