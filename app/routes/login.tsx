@@ -1,5 +1,6 @@
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
+import { useEffect, useState } from "react";
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/login";
@@ -50,13 +51,26 @@ export default function Login({ actionData }: Route.ComponentProps) {
     shouldValidate: "onSubmit",
     shouldRevalidate: "onBlur",
   });
+  // A refused attempt clears the password field (a fresh input) and puts the cursor there.
+  const [attempt, setAttempt] = useState(0);
+  useEffect(() => {
+    if (actionData) setAttempt((n) => n + 1);
+  }, [actionData]);
   return (
     <AuthCard title="Sign in" lead="Staff accounts of the shop. Customers open the link in their quote e-mail instead.">
       <Form method="post" {...getFormProps(form)} className="space-y-4">
         <FormAlert id={form.errorId} errors={form.errors} />
         <input type="hidden" name="redirectTo" value={params.get("redirectTo") ?? ""} />
-        <TextField label="E-mail" field={fields.email} type="email" autoComplete="username" autoFocus />
-        <TextField label="Password" field={fields.password} type="password" autoComplete="current-password" />
+        <TextField label="E-mail" field={fields.email} type="email" autoComplete="username" autoFocus={attempt === 0} />
+        <div key={attempt}>
+          <TextField
+            label="Password"
+            field={fields.password}
+            type="password"
+            autoComplete="current-password"
+            autoFocus={attempt > 0}
+          />
+        </div>
         <SubmitButton busy={navigation.state !== "idle"}>Sign in</SubmitButton>
       </Form>
       <p className="mt-4 text-sm">

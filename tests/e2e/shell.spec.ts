@@ -1,10 +1,12 @@
 import { expect, test } from "@playwright/test";
+import { loginAs } from "./support/login";
 
 test("home page shows the shop in the product's look, with Barlow from the app's own assets", async ({ page }) => {
   const fontRequests: string[] = [];
   page.on("request", (r) => {
     if (r.resourceType() === "font") fontRequests.push(r.url());
   });
+  await loginAs(page, "owner");
   await page.goto("/");
   await expect(page.getByRole("link", { name: "Torquewright" })).toBeVisible();
   await expect(page.getByRole("heading", { level: 1 })).toHaveText("Tallgrass Twin Works");
