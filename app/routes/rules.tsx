@@ -1,0 +1,92 @@
+import { Link } from "react-router";
+import type { Route } from "./+types/rules";
+import { KindBadge } from "~/components/rules/kind-badge";
+import { ReferencePanel } from "~/components/rules/reference-panel";
+import { requirePermission } from "~/lib/auth.server";
+import { getDb } from "~/lib/db.server";
+import { listRules } from "~/lib/fit-rules.server";
+import { can } from "~/lib/permissions";
+
+const iso = (d: unknown) => new Date(d as string).toISOString();
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requirePermission(request, "rules:read");
+  const rules = await listRules(getDb());
+  return {
+    canEdit: can(user.role, "rules:edit"),
+    rules: rules.map((r) => ({ id: r.id, name: r.name, kind: r.kind, condition: r.condition, active: r.active, version: r.version, updated_at: iso(r.updated_at), updated_by_name: r.updated_by_name })),
+  };
+}
+
+const dateFmt = new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeZone: "UTC" });
+
+export default function Rules({ loaderData }: Route.ComponentProps) {
+  const { rules, canEdit } = loaderData;
+  return (
+    <main className="mx-auto max-w-7xl px-4 py-8">
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <div>
+          <h1 className="text-3xl font-semibold text-ink">Fit rules</h1>
+          <p className="mt-1 text-steel-700">The shop's rules, checked against every package on the bench. Conflicts first, then upgrades, then cautions.</p>
+        </div>
+        {canEdit ? (
+          <Link to="/rules/new" className="rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink">
+            New rule
+          </Link>
+        ) : null}
+      </div>
+      <p className="mt-3 rounded border border-amber bg-white px-3 py-2 text-sm text-amber-text">
+        Rules help the staff remember the shop's practice; they do not replace the parts maker's instructions, local regulations or a qualified technician's check of brakes, axles and suspension.
+      </p>
+      <div className="mt-6 grid gap-8 lg:grid-cols-[1fr_26rem]">
+        <section aria-labelledby="list-h">
+          <h2 id="list-h" className="sr-only">
+            Rules
+          </h2>
+          {rules.length === 0 ? (
+            <p className="rounded border border-steel-200 bg-white p-4 text-steel-700">No rules yet.{canEdit ? " Write the first one with “New rule”." : ""}</p>
+          ) : (
+            <table className="w-full rounded border border-steel-200 bg-white text-sm">
+              <thead className="bg-steel-100 text-left text-graphite">
+                <tr>
+                  <th className="px-3 py-2">Kind</th>
+                  <th className="px-3 py-2">Rule</th>
+                  <th className="px-3 py-2">Version</th>
+                  <th className="px-3 py-2">Changed</th>
+                </tr>
+              </thead>
+              <tbody>
+                {rules.map((r) => (
+                  <tr key={r.id} className={`border-t border-steel-100 align-top ${r.active ? "" : "text-steel-700"}`}>
+                    <td className="px-3 py-2">
+                      <KindBadge kind={r.kind} />
+                    </td>
+                    <td className="px-3 py-2">
+                      <Link to={`/rules/${r.id}`} className="font-semibold text-ink underline">
+                        {r.name}
+                      </Link>
+                      {r.active ? null : <span className="ml-2 text-xs font-semibold uppercase text-steel-700">off</span>}
+                      <code className="mt-0.5 block break-all font-mono text-xs text-steel-700">{r.condition}</code>
+                    </td>
+                    <td className="num px-3 py-2">v{r.version}</td>
+                    <td className="px-3 py-2 text-steel-700">
+                      <span className="num">{dateFmt.format(new Date(r.updated_at))}</span>
+                      {r.updated_by_name ? <span className="block">{r.updated_by_name}</span> : null}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          )}
+        </section>
+        <aside>
+          <ReferencePanel />
+        </aside>
+      </div>
+    </main>
+  );
+}
+
+export function meta(_: Route.MetaArgs) {
+  return [{ title: "Fit rules · Torquewright" }];
+}
