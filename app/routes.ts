@@ -18,5 +18,8 @@ export default [
   route("api/parts", "routes/api.parts.ts"),
   route("api/packages/:id", "routes/api.packages.$id.ts"),
   route("api/calc", "routes/api.calc.ts"),
+  route("rules", "routes/rules.tsx"),
+  route("rules/new", "routes/rules.new.tsx"),
+  route("rules/:id", "routes/rules.$id.tsx"),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

@@ -74,6 +74,11 @@ export const ROWS: Row[] = [
   { path: "/api/parts", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
   { path: "/api/packages/999999", expect: { ...staffOnly("owner", "builder", "service_writer"), owner: 404, builder: 404, service_writer: 404 } },
   { path: "/api/calc", method: "POST", body: { boreMm: "x" }, expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
+  { path: "/rules", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
+  { path: "/rules/new", expect: staffOnly("owner") },
+  { path: "/rules/new", method: "POST", body: { intent: "save", name: "" }, expect: staffOnly("owner") },
+  { path: "/rules/999999", expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), owner: 404, builder: 404, service_writer: 404, apprentice: 404 } },
+  { path: "/rules/999999", method: "POST", body: { intent: "save" }, expect: { ...staffOnly("owner"), owner: 404 } },
   { path: "/no-such-page", expect: all(404) },
 ];
 
