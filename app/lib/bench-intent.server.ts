@@ -14,7 +14,7 @@ const BOUNDS: Record<MeasuredField | "deckClearanceMm" | "revLimitRpm" | "powerH
   gasketBoreMm: { min: 50, max: 145, why: "a gasket bore is between 50 and 145 mm" },
   gasketThicknessMm: { min: 0.1, max: 5, why: "a compressed gasket is between 0.1 and 5 mm thick" },
   intakeClosesAbdcDeg: { min: 0, max: 179.9, why: "intake closing is 0 to under 180° after BDC" },
-  rodLengthMm: { min: 60, max: 300, why: "a rod is between 60 and 300 mm centre to centre" },
+  rodLengthMm: { min: 40, max: 300, why: "a rod is between 40 and 300 mm centre to centre" },
   deckClearanceMm: { min: -3, max: 5, why: "deck clearance is between −3 mm (above the deck) and 5 mm" },
   revLimitRpm: { min: 1000, max: 12000, why: "a rev limit is between 1,000 and 12,000 rpm" },
   powerHp: { min: 1, max: 1000, why: "power is between 1 and 1,000 hp" },

@@ -3,6 +3,7 @@
 // input, and how one bench action changes the spec.
 import { computeSpec, type Caution, type FieldError, type SpecField, type SpecInput, type SpecResults, type Step } from "../../calc";
 import { SLOTS, SLOT_BY_KEY } from "./slots";
+import type { PackageStatus } from "../../db/schema/packages";
 
 export type PowerBasis = "target" | "estimate" | "measured";
 
@@ -313,3 +314,18 @@ export function describeIntent(action: BenchIntent, partName: (id: number) => st
       return `Power basis: ${action.value ?? "cleared"}`;
   }
 }
+
+/** Which status may follow which. Cancelled packages can be reopened as drafts. */
+export const STATUS_TRANSITIONS: Record<PackageStatus, PackageStatus[]> = {
+  draft: ["quoted", "cancelled"],
+  quoted: ["approved", "draft", "cancelled"],
+  approved: ["in_build", "quoted", "cancelled"],
+  in_build: ["on_dyno", "cancelled"],
+  on_dyno: ["delivered", "in_build", "cancelled"],
+  delivered: [],
+  cancelled: ["draft"],
+};
+
+/** Statuses in which the bench may change the spec; later ones are locked to what was quoted or built. */
+export const EDITABLE_STATUSES: PackageStatus[] = ["draft", "quoted"];
+

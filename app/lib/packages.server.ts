@@ -27,19 +27,8 @@ function inTransaction<T>(db: Db, fn: (trx: Db) => Promise<T>): Promise<T> {
   return db.isTransaction ? fn(db) : db.transaction().execute((trx) => fn(trx));
 }
 
-/** Which status may follow which. Cancelled packages can be reopened as drafts. */
-export const STATUS_TRANSITIONS: Record<PackageStatus, PackageStatus[]> = {
-  draft: ["quoted", "cancelled"],
-  quoted: ["approved", "draft", "cancelled"],
-  approved: ["in_build", "quoted", "cancelled"],
-  in_build: ["on_dyno", "cancelled"],
-  on_dyno: ["delivered", "in_build", "cancelled"],
-  delivered: [],
-  cancelled: ["draft"],
-};
-
-/** Statuses in which the bench may change the spec; later ones are locked to what was quoted or built. */
-export const EDITABLE_STATUSES: PackageStatus[] = ["draft", "quoted"];
+export { EDITABLE_STATUSES, STATUS_TRANSITIONS } from "./bench";
+import { EDITABLE_STATUSES, STATUS_TRANSITIONS } from "./bench";
 
 type PartRow = {
   id: number;
