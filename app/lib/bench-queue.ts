@@ -27,6 +27,8 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
   const [conflict, setConflict] = useState<{ info: StaleInfo; mine: QueuedAction[] } | null>(null);
   const [parts, setParts] = useState<Map<number, BenchPart>>(() => new Map([...partsFromLoader, ...initial.parts].map((p) => [p.id, p])));
   const inFlight = useRef<QueuedAction | null>(null);
+  const queueRef = useRef(queue);
+  queueRef.current = queue;
 
   const remember = (more: BenchPart[]) =>
     setParts((prev) => {
@@ -36,47 +38,48 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
       return next;
     });
 
-  // the server's answer to the action in flight
+  // One effect, so an answer is taken in before the next action is sent: the next one
+  // must name the revision the answer brought.
+  const sawBusy = useRef(false);
   useEffect(() => {
-    if (fetcher.state !== "idle" || !inFlight.current) return;
-    const sent = inFlight.current;
-    inFlight.current = null;
-    const answer = fetcher.data;
-    if (!answer) {
-      setQueue((q) => q.slice(1));
-      setErrors((e) => ({ ...e, [sent.key]: ["The server did not answer; the change was not saved. Try again."] }));
+    if (inFlight.current && fetcher.state !== "idle") {
+      sawBusy.current = true;
       return;
     }
-    if (answer.ok) {
-      setBase(answer.state);
-      remember(answer.state.parts);
-      setErrors((e) => {
-        const { [sent.key]: _gone, form: _form, ...rest } = e;
-        return rest;
-      });
-      setQueue((q) => q.slice(1));
-    } else if ("stale" in answer) {
-      setQueue((q) => {
-        setConflict({ info: answer, mine: q });
-        return [];
-      });
-      setBase(answer.current);
-      remember(answer.current.parts);
-    } else {
-      setErrors((e) => ({ ...e, ...answer.errors }));
-      setQueue((q) => q.slice(1));
+    if (inFlight.current && sawBusy.current) {
+      const sent = inFlight.current;
+      inFlight.current = null;
+      sawBusy.current = false;
+      const answer = fetcher.data;
+      if (!answer) {
+        setQueue((q) => q.slice(1));
+        setErrors((e) => ({ ...e, [sent.key]: ["The server did not answer; the change was not saved. Try again."] }));
+      } else if (answer.ok) {
+        setBase(answer.state);
+        remember(answer.state.parts);
+        setErrors((e) => {
+          const { [sent.key]: _gone, form: _form, ...rest } = e;
+          return rest;
+        });
+        setQueue((q) => q.slice(1));
+      } else if ("stale" in answer) {
+        setConflict({ info: answer, mine: queueRef.current });
+        setQueue([]);
+        setBase(answer.current);
+        remember(answer.current.parts);
+      } else {
+        setErrors((e) => ({ ...e, ...answer.errors }));
+        setQueue((q) => q.slice(1));
+      }
+      return;
     }
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [fetcher.state, fetcher.data]);
-
-  // send the next action once the previous one is answered
-  useEffect(() => {
     if (inFlight.current || fetcher.state !== "idle" || queue.length === 0 || conflict) return;
     const next = queue[0]!;
     inFlight.current = next;
+    sawBusy.current = false;
     fetcher.submit({ ...next.fields, expectedRevision: String(base.revision) }, { method: "post" });
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [queue, fetcher.state, conflict, base.revision]);
+  }, [fetcher.state, fetcher.data, queue, conflict, base.revision]);
 
   const spec = useMemo(() => queue.reduce((s, a) => (a.intent ? applyIntent(s, a.intent) : s), base.spec), [base.spec, queue]);
   const computation = useMemo(

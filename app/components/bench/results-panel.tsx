@@ -43,7 +43,7 @@ export function ResultsPanel(props: {
 }) {
   const { computation: c, units } = props;
   const order = { conflict: 0, upgrade: 1, caution: 2 } as const;
-  const findings = [...props.findings].sort((a, b) => order[a.kind] - order[b.kind]);
+  const findings = [...props.findings].sort((a, b) => Number(Boolean(a.error)) - Number(Boolean(b.error)) || order[a.kind] - order[b.kind]);
   return (
     <section aria-labelledby="results-h" className="flex flex-col gap-3">
       <div className="flex items-center justify-between">
@@ -141,7 +141,15 @@ export function ResultsPanel(props: {
 }
 
 function FindingItem({ f, parts, canEdit, onUse }: { f: Finding; parts: ReadonlyMap<number, BenchPart>; canEdit: boolean; onUse: (slot: string, id: number) => void }) {
-  const style = { conflict: "border-red text-red-text", upgrade: "border-amber text-amber-text", caution: "border-steel-500 text-steel-700" }[f.kind];
+  const style = f.error ? "border-steel-300 text-steel-700" : { conflict: "border-red text-red-text", upgrade: "border-amber text-amber-text", caution: "border-steel-500 text-steel-700" }[f.kind];
+  if (f.error) {
+    return (
+      <li className={`rounded border-l-4 bg-white p-2 text-sm ${style.split(" ")[0]}`} data-testid="finding-unchecked">
+        <p className="text-xs font-semibold uppercase text-steel-700">Not checked · {f.ruleName}</p>
+        <p className="text-steel-700">{f.error}</p>
+      </li>
+    );
+  }
   const slot = f.upgradeCategory ? SLOTS.find((s) => s.category === f.upgradeCategory) : undefined;
   const suggested = f.suggestedPartId != null ? parts.get(f.suggestedPartId) : undefined;
   return (
@@ -151,7 +159,6 @@ function FindingItem({ f, parts, canEdit, onUse }: { f: Finding; parts: Readonly
         <span className="font-normal normal-case"> (rule v{f.ruleVersion})</span>
       </p>
       <p className="text-graphite">{f.message}</p>
-      {f.error ? <p className="text-xs text-red-text">This rule could not be checked: {f.error}</p> : null}
       {f.kind === "upgrade" && f.upgradeCategory ? (
         <p className="mt-1 text-xs text-steel-700">
           Category: {slot?.label ?? f.upgradeCategory}

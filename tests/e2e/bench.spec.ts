@@ -1,0 +1,104 @@
+// The spec bench in Chromium: drag parts with the mouse and with the keyboard, see the
+// figures and a finding, reload to the saved state, and a stale save from a second tab.
+import { expect, test, type Page } from "@playwright/test";
+import { createDb } from "../../db/connect";
+import { e2eDatabaseUrl } from "../support/db-url";
+import { loginAs } from "./support/login";
+
+const SHOTS = ".data/test-results/screenshots";
+
+async function freshPackage(name: string): Promise<number> {
+  const db = createDb(e2eDatabaseUrl(), 1);
+  try {
+    const { createPackage } = await import("../../app/lib/packages.server");
+    const bike = await db.selectFrom("bikes").select("id").orderBy("id").executeTakeFirstOrThrow();
+    const builder = await db.selectFrom("users").select("id").where("role", "=", "builder").executeTakeFirstOrThrow();
+    return await createPackage(db, { name, bikeId: bike.id, isTemplate: false, builderId: builder.id }, builder.id);
+  } finally {
+    await db.destroy();
+  }
+}
+
+async function drag(page: Page, partNumber: string, slot: string) {
+  const card = page.getByTestId(`part-${partNumber}`);
+  const target = page.getByTestId(`slot-${slot}`);
+  await card.scrollIntoViewIfNeeded();
+  const from = (await card.boundingBox())!;
+  await page.mouse.move(from.x + from.width / 2, from.y + from.height / 2);
+  await page.mouse.down();
+  await page.mouse.move(from.x + from.width / 2 + 10, from.y + from.height / 2 + 10, { steps: 3 });
+  const to = (await target.boundingBox())!;
+  await page.mouse.move(to.x + to.width / 2, to.y + to.height / 2, { steps: 8 });
+  await page.mouse.up();
+  await expect(page.getByTestId(`slot-${slot}-part`)).toContainText(partNumber);
+}
+
+async function search(page: Page, q: string) {
+  await page.getByPlaceholder("Search number, name, tag…").fill(q);
+  await expect(page.getByTestId(`part-${q}`)).toBeVisible();
+}
+
+test("a builder drags parts onto the slots, sees figures and a finding, and the save survives a reload", async ({ page }) => {
+  const id = await freshPackage("E2E drag test");
+  await loginAs(page, "builder");
+  await page.setViewportSize({ width: 1440, height: 1000 });
+  await page.goto(`/packages/${id}/bench`);
+  const parts: [string, string][] = [
+    ["TW-CYL-1016", "cylinder"],
+    ["TW-FLY-1143", "flywheel"],
+    ["TW-PST-1016", "piston"],
+    ["TW-HD-0890", "head"],
+    ["TW-HG-0991", "gasket"],
+  ];
+  for (const [number, slot] of parts) {
+    await search(page, number);
+    await drag(page, number, slot);
+  }
+  // the cam by keyboard only: focus the card, lift with Space, an arrow to its slot, Space to drop
+  await search(page, "TW-CAM-585");
+  await page.getByTestId("part-TW-CAM-585").focus();
+  await page.keyboard.press("Space");
+  await page.keyboard.press("ArrowDown");
+  await page.keyboard.press("Space");
+  await expect(page.getByTestId("slot-cam-part")).toContainText("TW-CAM-585");
+  await expect(page.locator("#DndLiveRegion-0, [id^=DndLiveRegion]").first()).toContainText("placed in the cam slot");
+
+  await expect(page.getByTestId("result-displacementCi")).toContainText("113.");
+  await expect(page.getByTestId("finding-conflict")).toContainText("Head gasket bore smaller than the cylinder bore");
+  await expect(page.getByText("saving…")).toHaveCount(0);
+  const revision = await page.getByTestId("revision").textContent();
+  await page.screenshot({ path: `${SHOTS}/bench-1440.png`, fullPage: true });
+
+  await page.reload();
+  await expect(page.getByTestId("revision")).toHaveText(revision!);
+  await expect(page.getByTestId("slot-cam-part")).toContainText("TW-CAM-585");
+  await expect(page.getByTestId("finding-conflict")).toBeVisible();
+
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.screenshot({ path: `${SHOTS}/bench-390.png`, fullPage: true });
+});
+
+test("two tabs on one package: the stale save is refused with what changed, and can be applied on top", async ({ browser }) => {
+  const id = await freshPackage("E2E two tabs");
+  const a = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+  const b = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+  await loginAs(a, "builder");
+  await loginAs(b, "owner");
+  const pa = await a.newPage();
+  const pb = await b.newPage();
+  await pa.goto(`/packages/${id}/bench`);
+  await pb.goto(`/packages/${id}/bench`);
+  await pa.getByTestId("slot-cylinder").getByRole("combobox").selectOption({ label: "TW-CYL-1048 · Big-bore cylinder pair, 104.8 mm" });
+  await expect(pa.getByTestId("revision")).toHaveText("revision 2");
+  await pb.getByTestId("slot-flywheel").getByRole("combobox").selectOption({ label: "TW-FLY-1175 · Stroker flywheel assembly, 117.5 mm" });
+  const notice = pb.getByTestId("stale-notice");
+  await expect(notice).toBeVisible();
+  await expect(notice).toContainText("Bore (cylinders)");
+  await expect(notice).toContainText("TW-CYL-1048");
+  await pb.getByRole("button", { name: "Apply my change on top" }).click();
+  await expect(pb.getByTestId("revision")).toHaveText("revision 3");
+  await expect(pb.getByTestId("slot-flywheel-part")).toContainText("TW-FLY-1175");
+  await expect(pb.getByTestId("slot-cylinder-part")).toContainText("TW-CYL-1048");
+  await a.close();
+  await b.close();
+});
