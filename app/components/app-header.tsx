@@ -8,6 +8,7 @@ export type NavItem = { to: string; label: string };
 const SECTIONS: (NavItem & { permission: Permission; localMailOnly?: boolean })[] = [
   { to: "/", label: "Home", permission: "home:read" },
   { to: "/packages", label: "Packages", permission: "packages:read" },
+  { to: "/parts", label: "Parts", permission: "parts:read" },
   { to: "/rules", label: "Fit rules", permission: "rules:read" },
   { to: "/staff", label: "Staff", permission: "staff:manage" },
   { to: "/dev/outbox", label: "Outbox", permission: "outbox:read", localMailOnly: true },
