@@ -93,7 +93,7 @@ export function evaluateRules(snapshot: PackageSnapshot, rules: readonly RuleFor
     else if (o.hit === "error") findings.push(findingOf(rule, o.triggeredBy, o.error));
   }
   return findings.sort(
-    (a, b) => KIND_ORDER[a.kind] - KIND_ORDER[b.kind] || Number(Boolean(a.error)) - Number(Boolean(b.error)) || a.ruleName.localeCompare(b.ruleName) || a.ruleId - b.ruleId,
+    (a, b) => KIND_ORDER[a.kind] - KIND_ORDER[b.kind] || Number(Boolean(a.error)) - Number(Boolean(b.error)) || (a.ruleName < b.ruleName ? -1 : a.ruleName > b.ruleName ? 1 : 0) || a.ruleId - b.ruleId,
   );
 }
 
