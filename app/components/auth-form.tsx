@@ -54,6 +54,14 @@ export function FieldErrors({ id, errors }: { id: string; errors?: string[] }) {
   );
 }
 
+/**
+ * The form-level errors of the server's last answer. Shown until the next answer, so a
+ * client-side revalidation on blur does not pull the message away (and the layout with it).
+ */
+export function serverFormErrors(result: { error?: Record<string, string[] | null> | null } | undefined): string[] | undefined {
+  return result?.error?.[""] ?? undefined;
+}
+
 export function FormAlert({ id, errors }: { id: string; errors?: string[] }) {
   if (!errors?.length) return <div id={id} />;
   return (

@@ -3,7 +3,7 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/invite.$token";
-import { AuthCard, FormAlert, SubmitButton, TextField } from "~/components/auth-form";
+import { AuthCard, FormAlert, serverFormErrors, SubmitButton, TextField } from "~/components/auth-form";
 import { hashPassword } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { requireSameOrigin } from "~/lib/origin.server";
@@ -66,7 +66,7 @@ export default function AcceptInvite({ loaderData, actionData }: Route.Component
   const [form, fields] = useForm({
     lastResult: actionData?.result,
     onValidate: ({ formData }) => parseWithZod(formData, { schema: AcceptSchema }),
-    shouldRevalidate: "onBlur",
+    shouldRevalidate: "onInput",
   });
   if (!loaderData.invite) {
     return (
@@ -87,7 +87,7 @@ export default function AcceptInvite({ loaderData, actionData }: Route.Component
       }
     >
       <Form method="post" {...getFormProps(form)} className="space-y-4">
-        <FormAlert id={form.errorId} errors={form.errors} />
+        <FormAlert id={form.errorId} errors={form.errors?.length ? form.errors : serverFormErrors(actionData?.result)} />
         <TextField label="Your name" field={fields.name} autoComplete="name" autoFocus />
         <TextField label="Password" field={fields.password} type="password" autoComplete="new-password" hint="At least 10 characters." />
         <TextField label="Password again" field={fields.confirm} type="password" autoComplete="new-password" />

@@ -1,10 +1,10 @@
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
-import { useEffect, useState } from "react";
+import { useState } from "react";
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/login";
-import { AuthCard, FormAlert, SubmitButton, TextField } from "~/components/auth-form";
+import { AuthCard, FormAlert, serverFormErrors, SubmitButton, TextField } from "~/components/auth-form";
 import { authenticator, getUser, safeRedirect, SignInError } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { requireSameOrigin } from "~/lib/origin.server";
@@ -49,17 +49,20 @@ export default function Login({ actionData }: Route.ComponentProps) {
     lastResult: actionData?.result,
     onValidate: ({ formData }) => parseWithZod(formData, { schema: LoginSchema }),
     shouldValidate: "onSubmit",
-    shouldRevalidate: "onBlur",
+    shouldRevalidate: "onInput",
   });
   // A refused attempt clears the password field (a fresh input) and puts the cursor there.
+  // (Counted during render, so the field is fresh in the same paint as the error.)
   const [attempt, setAttempt] = useState(0);
-  useEffect(() => {
-    if (actionData) setAttempt((n) => n + 1);
-  }, [actionData]);
+  const [answered, setAnswered] = useState(actionData);
+  if (actionData !== answered) {
+    setAnswered(actionData);
+    setAttempt(attempt + 1);
+  }
   return (
     <AuthCard title="Sign in" lead="Staff accounts of the shop. Customers open the link in their quote e-mail instead.">
       <Form method="post" {...getFormProps(form)} className="space-y-4">
-        <FormAlert id={form.errorId} errors={form.errors} />
+        <FormAlert id={form.errorId} errors={form.errors?.length ? form.errors : serverFormErrors(actionData?.result)} />
         <input type="hidden" name="redirectTo" value={params.get("redirectTo") ?? ""} />
         <TextField label="E-mail" field={fields.email} type="email" autoComplete="username" autoFocus={attempt === 0} />
         <div key={attempt}>

@@ -3,7 +3,7 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/reset.$token";
-import { AuthCard, FormAlert, SubmitButton, TextField } from "~/components/auth-form";
+import { AuthCard, FormAlert, serverFormErrors, SubmitButton, TextField } from "~/components/auth-form";
 import { hashPassword } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { requireSameOrigin } from "~/lib/origin.server";
@@ -38,7 +38,7 @@ export default function ChooseNewPassword({ loaderData, actionData }: Route.Comp
   const [form, fields] = useForm({
     lastResult: actionData?.result,
     onValidate: ({ formData }) => parseWithZod(formData, { schema: NewPasswordSchema }),
-    shouldRevalidate: "onBlur",
+    shouldRevalidate: "onInput",
   });
   if (!loaderData.email) {
     return (
@@ -51,7 +51,7 @@ export default function ChooseNewPassword({ loaderData, actionData }: Route.Comp
   return (
     <AuthCard title="Choose a new password" lead={<>For <strong>{loaderData.email}</strong>. Every other session of this account ends.</>}>
       <Form method="post" {...getFormProps(form)} className="space-y-4">
-        <FormAlert id={form.errorId} errors={form.errors} />
+        <FormAlert id={form.errorId} errors={form.errors?.length ? form.errors : serverFormErrors(actionData?.result)} />
         <TextField label="New password" field={fields.password} type="password" autoComplete="new-password" hint="At least 10 characters." autoFocus />
         <TextField label="New password again" field={fields.confirm} type="password" autoComplete="new-password" />
         <SubmitButton busy={navigation.state !== "idle"}>Save the new password</SubmitButton>

@@ -30,7 +30,7 @@ export default function ResetRequest({ actionData }: Route.ComponentProps) {
   const [form, fields] = useForm({
     lastResult: actionData?.result,
     onValidate: ({ formData }) => parseWithZod(formData, { schema: ResetRequestSchema }),
-    shouldRevalidate: "onBlur",
+    shouldRevalidate: "onInput",
   });
   return (
     <AuthCard title="Forgot your password?" lead="Enter the e-mail of your staff account; we send a link to choose a new password.">

@@ -3,7 +3,7 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, useFetcher, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/staff";
-import { FieldErrors, FormAlert, Notice, TextField } from "~/components/auth-form";
+import { FieldErrors, FormAlert, Notice, serverFormErrors, TextField } from "~/components/auth-form";
 import { requirePermission } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { ROLE_LABELS, ROLES, type Role } from "~/lib/permissions";
@@ -125,7 +125,7 @@ function InviteForm() {
     id: "invite",
     lastResult: fetcher.data?.result,
     onValidate: ({ formData }) => parseWithZod(formData, { schema: StaffSchema }),
-    shouldRevalidate: "onBlur",
+    shouldRevalidate: "onInput",
     defaultValue: { intent: "invite", role: "apprentice" },
   });
   return (
@@ -134,7 +134,7 @@ function InviteForm() {
       <p className="mt-1 text-sm text-steel-700">They get a link, valid for 72 hours, to choose their name and password.</p>
       <fetcher.Form method="post" {...getFormProps(form)} className="mt-3 space-y-3">
         {fetcher.data?.done && fetcher.state === "idle" ? <Notice>{fetcher.data.done}</Notice> : null}
-        <FormAlert id={form.errorId} errors={form.errors} />
+        <FormAlert id={form.errorId} errors={form.errors?.length ? form.errors : serverFormErrors(fetcher.data?.result)} />
         <input type="hidden" name="intent" value="invite" />
         <TextField label="E-mail" field={fields.email as never} type="email" autoComplete="off" />
         <RoleSelect field={fields.role as never} label="Role" />
@@ -180,7 +180,7 @@ function StaffRow({ user, isMe }: { user: StaffUser; isMe: boolean }) {
   const busy = fetcher.state !== "idle" || navigation.state === "submitting";
   const disabled = Boolean(user.disabled_at);
   return (
-    <li className="grid gap-3 p-4 sm:grid-cols-[1fr_12rem_auto] sm:items-start">
+    <li className="grid gap-3 p-4 sm:grid-cols-[1fr_17rem_auto] sm:items-start">
       <div>
         <p className="font-semibold text-ink">
           {user.name} {isMe ? <span className="text-sm font-normal text-steel-700">(you)</span> : null}
@@ -192,7 +192,7 @@ function StaffRow({ user, isMe }: { user: StaffUser; isMe: boolean }) {
         <div aria-live="polite">
           {fetcher.data?.done && fetcher.state === "idle" ? <p className="mt-1 text-sm text-green-text">{fetcher.data.done}</p> : null}
         </div>
-        <FormAlert id={form.errorId} errors={form.errors} />
+        <FormAlert id={form.errorId} errors={form.errors?.length ? form.errors : serverFormErrors(fetcher.data?.result)} />
       </div>
       <fetcher.Form method="post" {...getFormProps(form)} className="flex items-end gap-2">
         <input type="hidden" name="intent" value="role" />
