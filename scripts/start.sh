@@ -9,6 +9,7 @@ bash scripts/pg.sh start
 export DATABASE_URL="${DATABASE_URL:-$(bash scripts/pg.sh url)}"
 npx tsx db/migrate.ts
 npx tsx db/seed.ts --if-empty
+npx tsx db/seed/auth.ts
 start_local_services
 
 echo "build: building the app…"
