@@ -1,7 +1,8 @@
 import { data, Form, useNavigation } from "react-router";
 import type { Route } from "./+types/parts.import";
 import { requirePermission } from "~/lib/auth.server";
-import { checkPartsCsv, CSV_COLUMNS, importPartsCsv, MAX_CSV_BYTES, type CsvCheck } from "~/lib/csv.server";
+import { CSV_COLUMNS, MAX_CSV_BYTES } from "~/components/parts/csv-columns";
+import { checkPartsCsv, importPartsCsv, type CsvCheck } from "~/lib/csv.server";
 import { getDb } from "~/lib/db.server";
 
 export async function loader({ request }: Route.LoaderArgs) {

@@ -53,7 +53,7 @@ export function PartForm({ defaults, categories, editing }: { defaults: PartDefa
     defaultValue: { ...defaults, stock: defaults.stock ? "on" : undefined } as never,
     onValidate: ({ formData }) => parseWithZod(formData, { schema: partSchemaFor(String(formData.get("category") ?? ""), slugs) }),
     shouldValidate: "onSubmit",
-    shouldRevalidate: "onBlur",
+    shouldRevalidate: "onInput",
   });
   const attrs = (fields.attributes as unknown as { getFieldset: () => Record<string, any> }).getFieldset();
   const attrFields = attributeFieldsFor(category);

@@ -19,7 +19,7 @@ export function PairForm() {
     lastResult: navigation.state === "idle" ? mine?.result : undefined,
     onValidate: ({ formData }) => parseWithZod(formData, { schema: pairSchema }),
     shouldValidate: "onSubmit",
-    shouldRevalidate: "onBlur",
+    shouldRevalidate: "onInput",
   });
   const busy = navigation.state === "submitting";
   return (

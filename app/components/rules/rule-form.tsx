@@ -52,7 +52,7 @@ export function RuleForm({ defaults, categories, parts, editing }: { defaults: R
     defaultValue: { ...defaults, active: defaults.active ? "on" : undefined, version: defaults.version ? String(defaults.version) : undefined },
     onValidate: ({ formData }) => parseWithZod(formData, { schema: ruleSchema }),
     shouldValidate: "onSubmit",
-    shouldRevalidate: "onBlur",
+    shouldRevalidate: "onInput",
   });
   const [kind, setKind] = useState(defaults.kind);
   const [category, setCategory] = useState(defaults.upgrade_category);
