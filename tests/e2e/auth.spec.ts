@@ -34,6 +34,12 @@ test("a wrong password shows the error and keeps the e-mail filled", async ({ pa
   await expect(page.getByRole("alert")).toHaveText("That e-mail and password do not match an active account.");
   await expect(page.getByLabel("E-mail")).toHaveValue("rui@tallgrass.test");
   await expect(page.getByLabel("Password")).toHaveValue("");
+
+  // the right password straight after works at the first click
+  await page.getByLabel("Password").fill(DEMO_PASSWORD);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page).toHaveURL(/\/$/);
+  await expect(page.getByLabel("Signed in as")).toContainText("Rui Castellane");
 });
 
 test("after signing in, the visitor lands where they were going", async ({ page }) => {
