@@ -4,21 +4,28 @@ import { navFor } from "~/components/app-header";
 import { requireUser } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { env } from "~/lib/env.server";
-import { can, ROLE_LABELS } from "~/lib/permissions";
+import { homeStats, type HomeStat } from "~/lib/home.server";
+import { ROLE_LABELS } from "~/lib/permissions";
 import { getShopOverview } from "~/lib/shop.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  const { shop, counts } = await getShopOverview(getDb());
-  const stats: { label: string; value: number; to?: string }[] = [];
-  if (can(user.role, "customers:read")) {
-    stats.push({ label: "Customers on file", value: counts.customers });
-    stats.push({ label: "Bikes on file", value: counts.bikes });
-  }
-  if (can(user.role, "staff:manage")) stats.push({ label: "Active staff", value: counts.staff, to: "/staff" });
+  const db = getDb();
+  const [{ shop }, { stats, statuses }] = await Promise.all([getShopOverview(db), homeStats(db, user)]);
   const links = navFor(user.role, { localMail: Boolean(env().LOCAL_MAIL_API_URL) }).filter((l) => l.to !== "/");
-  return { shop, user, stats, links };
+  return { shop, user, stats, statuses, links };
 }
+
+const STATUS_LABELS: Record<string, string> = {
+  draft: "Draft",
+  quoted: "Quoted",
+  approved: "Approved",
+  in_build: "In build",
+  on_dyno: "On the dyno",
+  delivered: "Delivered",
+  cancelled: "Cancelled",
+};
+const STATUS_ORDER = Object.keys(STATUS_LABELS);
 
 const LEADS: Record<string, string> = {
   owner: "The shop's rules, catalog, rates and staff are yours to keep.",
@@ -28,7 +35,7 @@ const LEADS: Record<string, string> = {
 };
 
 export default function Home({ loaderData }: Route.ComponentProps) {
-  const { shop, user, stats, links } = loaderData;
+  const { shop, user, stats, statuses, links } = loaderData;
   return (
     <main className="mx-auto max-w-7xl px-4 py-8">
       <p className="text-sm font-semibold uppercase tracking-widest text-steel-700">Engine program</p>
@@ -38,11 +45,26 @@ export default function Home({ loaderData }: Route.ComponentProps) {
         Hello {user.name.split(" ")[0]} — {ROLE_LABELS[user.role].toLowerCase()}. {LEADS[user.role]}
       </p>
       {stats.length > 0 ? (
-        <dl className="mt-6 grid grid-cols-1 gap-4 sm:grid-cols-3">
+        <dl className="mt-6 grid grid-cols-1 gap-4 sm:grid-cols-2 lg:grid-cols-4">
           {stats.map((s) => (
             <Stat key={s.label} {...s} />
           ))}
         </dl>
+      ) : null}
+      {statuses.length > 0 ? (
+        <section aria-labelledby="by-status" className="mt-8">
+          <h2 id="by-status" className="text-lg font-semibold text-ink">Packages by status</h2>
+          <ul className="mt-2 flex flex-wrap gap-2">
+            {[...statuses]
+              .sort((a, b) => STATUS_ORDER.indexOf(a.status) - STATUS_ORDER.indexOf(b.status))
+              .map((s) => (
+                <li key={s.status} className="rounded border border-steel-200 bg-white px-4 py-2">
+                  <span className="text-sm text-steel-700">{STATUS_LABELS[s.status] ?? s.status}</span>{" "}
+                  <span className="num text-lg font-semibold text-ink">{s.n}</span>
+                </li>
+              ))}
+          </ul>
+        </section>
       ) : null}
       {links.length > 0 ? (
         <section aria-labelledby="open" className="mt-8">
@@ -62,11 +84,12 @@ export default function Home({ loaderData }: Route.ComponentProps) {
   );
 }
 
-function Stat({ label, value, to }: { label: string; value: number; to?: string }) {
+function Stat({ label, value, to, note }: HomeStat) {
   const body = (
     <>
       <dt className="text-sm text-steel-700">{label}</dt>
       <dd className="num mt-1 text-3xl font-semibold text-ink">{value}</dd>
+      {note ? <dd className="mt-1 text-sm text-amber-text">{note}</dd> : null}
     </>
   );
   return to ? (
