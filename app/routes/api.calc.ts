@@ -1,6 +1,6 @@
 import { z } from "zod";
 import type { Route } from "./+types/api.calc";
-import { requirePermission } from "~/lib/auth.server";
+import { requireApiPermission } from "~/lib/api-auth.server";
 import { computeSpec, SPEC_FIELDS } from "../../calc";
 
 // POST /api/calc — a spec (JSON, calc's field names in mm, cc, ° and rpm) in, figures out.
@@ -11,7 +11,7 @@ const SpecBody = z
   .strict();
 
 export async function action({ request }: Route.ActionArgs) {
-  await requirePermission(request, "library:read");
+  await requireApiPermission(request, "library:read");
   if (request.method !== "POST") return Response.json({ error: "Use POST with a JSON body." }, { status: 405 });
   let body: unknown;
   try {
@@ -37,6 +37,7 @@ export async function action({ request }: Route.ActionArgs) {
   return Response.json({ results: out.results, cautions: out.cautions, steps: out.steps, missing: out.missing });
 }
 
-export async function loader() {
+export async function loader({ request }: Route.LoaderArgs) {
+  await requireApiPermission(request, "library:read");
   return Response.json({ error: "Use POST with a JSON spec body." }, { status: 405 });
 }

@@ -1,12 +1,12 @@
 import type { Route } from "./+types/api.packages.$id";
-import { requirePermission } from "~/lib/auth.server";
+import { requireApiPermission } from "~/lib/api-auth.server";
 import { getDb } from "~/lib/db.server";
 import { can } from "~/lib/permissions";
 import { getBenchState, getPackageHeader } from "~/lib/packages.server";
 
 // GET /api/packages/:id — the package with its current revision's figures and findings.
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requirePermission(request, "packages:read");
+  const user = await requireApiPermission(request, "packages:read");
   const db = getDb();
   const id = Number(params.id);
   const header = Number.isInteger(id) && id > 0 ? await getPackageHeader(db, id) : null;

@@ -1,12 +1,12 @@
 import type { Route } from "./+types/api.parts";
-import { requirePermission } from "~/lib/auth.server";
+import { requireApiPermission } from "~/lib/api-auth.server";
 import { getDb } from "~/lib/db.server";
 import { can } from "~/lib/permissions";
 import { searchParts } from "~/lib/packages.server";
 
 // GET /api/parts?q=&category= — active parts for the parts shelf; prices only for roles that may see them.
 export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requirePermission(request, "parts:read");
+  const user = await requireApiPermission(request, "parts:read");
   const url = new URL(request.url);
   const q = (url.searchParams.get("q") ?? "").slice(0, 100);
   const category = (url.searchParams.get("category") ?? "").slice(0, 60);

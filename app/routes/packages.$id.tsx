@@ -41,13 +41,15 @@ const ActionSchema = z.discriminatedUnion("intent", [
 ]);
 
 export async function action({ request, params }: Route.ActionArgs) {
+  // who may send anything here at all, before reading what was sent
+  const staff = await requireRole(request, "owner", "builder", "service_writer");
   const form = Object.fromEntries(await request.formData());
   const parsed = ActionSchema.safeParse(form);
   const id = Number(params.id);
   if (!parsed.success) return data({ ok: false as const, message: "That action was not understood." }, { status: 400 });
   const db = getDb();
   if (parsed.data.intent === "status") {
-    const user = await requireRole(request, "owner", "builder", "service_writer");
+    const user = staff;
     const out = await changeStatus(db, id, parsed.data.to, user.id);
     return out.ok ? data({ ok: true as const, message: `Status is now ${parsed.data.to.replace("_", " ")}.` }) : data({ ok: false as const, message: out.message }, { status: 400 });
   }

@@ -26,7 +26,7 @@ process.env.LOCAL_MAIL_API_URL = catcher.apiUrl;
 const { getDb } = await import("~/lib/db.server");
 const routeConfig = (await import("~/routes")).default;
 
-type Outcome = "ok" | "login" | "redirect" | 403 | 404;
+type Outcome = "ok" | "login" | "redirect" | 401 | 403 | 404;
 type Who = "signedOut" | Role;
 type Row = {
   path: string;
@@ -71,9 +71,10 @@ export const ROWS: Row[] = [
   { path: "/packages/999999/bench", expect: { ...staffOnly("owner", "builder", "service_writer"), owner: 404, builder: 404, service_writer: 404 } },
   { path: "/packages/999999/bench", method: "POST", body: { intent: "set-units", units: "metric" }, expect: staffOnly("owner", "builder", "service_writer") },
   { path: "/packages/999999/bench", method: "POST", body: { intent: "clear-slot", slot: "cam", expectedRevision: "1" }, expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 } },
-  { path: "/api/parts", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
-  { path: "/api/packages/999999", expect: { ...staffOnly("owner", "builder", "service_writer"), owner: 404, builder: 404, service_writer: 404 } },
-  { path: "/api/calc", method: "POST", body: { boreMm: "x" }, expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
+  // JSON routes answer 401 instead of sending a signed-out caller to the sign-in form
+  { path: "/api/parts", expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), signedOut: 401 } },
+  { path: "/api/packages/999999", expect: { ...staffOnly("owner", "builder", "service_writer"), signedOut: 401, owner: 404, builder: 404, service_writer: 404 } },
+  { path: "/api/calc", method: "POST", body: { boreMm: "x" }, expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), signedOut: 401 } },
   { path: "/parts", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
   { path: "/parts", method: "POST", body: { label: "" }, expect: staffOnly("owner") },
   { path: "/parts/new", expect: staffOnly("owner") },
@@ -132,6 +133,7 @@ function classify(value: unknown): Outcome | `status ${number}` {
   if (status === 403) return 403;
   if (status === 404) return 404;
   if (status < 300 || (status >= 400 && status < 500 && status !== 401 && status !== 405)) return "ok";
+  if (status === 401 && value instanceof Response && value.headers.get("Content-Type")?.includes("json")) return 401; // a JSON route, signed out
   if (status === 401) return "ok"; // the sign-in form answering a wrong password
   return `status ${status}`;
 }
