@@ -55,6 +55,7 @@ export const ROWS: Row[] = [
   { path: "/logout", method: "POST", expect: all("login") },
   { path: "/invite/not-a-token", expect: all("ok") },
   { path: "/invite/not-a-token", method: "POST", body: { name: "" }, expect: all("ok") },
+  { path: "/reset", expect: all("ok") },
   { path: "/reset", method: "POST", body: { email: "" }, expect: all("ok") },
   { path: "/reset/not-a-token", expect: all("ok") },
   { path: "/reset/not-a-token", method: "POST", body: { password: "" }, expect: all("ok") },
@@ -167,6 +168,16 @@ describe("access table", () => {
       }
     });
   }
+
+  it("refuses every POST sent from another site, whoever is signed in", async () => {
+    for (const row of ROWS.filter((r) => r.method === "POST")) {
+      for (const who of ["signedOut", "owner"] as const) {
+        const init: RequestInit = { method: "POST", body: new URLSearchParams(row.body ?? {}), headers: { Origin: "http://elsewhere.test" } };
+        const request = who === "signedOut" ? signedOutRequest(row.path, init) : await requestAs(users[who], row.path, init);
+        expect(await outcome(request), `${who} POST ${row.path}`).toBe(403);
+      }
+    }
+  });
 
   it("lists every route of app/routes.ts", () => {
     const covered = new Set(
