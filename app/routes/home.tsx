@@ -45,7 +45,7 @@ export default function Home({ loaderData }: Route.ComponentProps) {
         Hello {user.name.split(" ")[0]} — {ROLE_LABELS[user.role].toLowerCase()}. {LEADS[user.role]}
       </p>
       {stats.length > 0 ? (
-        <dl className="mt-6 grid grid-cols-1 gap-4 sm:grid-cols-2 lg:grid-cols-4">
+        <dl className="mt-6 grid grid-cols-2 gap-3 sm:gap-4 lg:grid-cols-4">
           {stats.map((s) => (
             <Stat key={s.label} {...s} />
           ))}
