@@ -29,7 +29,7 @@ export default defineConfig({
     },
   },
   webServer: {
-    command: "npx react-router-serve ./build/server/index.js",
+    command: "node scripts/serve.mjs build/server/index.js",
     url: `${E2E_BASE_URL}/healthz`,
     reuseExistingServer: false,
     timeout: 60_000,

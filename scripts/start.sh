@@ -18,7 +18,7 @@ npx react-router build >"$TW_DATA_DIR/log/build.log" 2>&1 || { tail -30 "$TW_DAT
 export PORT="${PORT:-3000}" HOST="${HOST:-127.0.0.1}" NODE_ENV=production
 export APP_URL="${APP_URL:-http://$HOST:$PORT}"
 stop_pidfile "$TW_RUN_DIR/app.pid" "the previous app server"
-setsid node node_modules/@react-router/serve/bin.js ./build/server/index.js </dev/null >"$TW_DATA_DIR/log/app.log" 2>&1 &
+setsid node scripts/serve.mjs build/server/index.js </dev/null >"$TW_DATA_DIR/log/app.log" 2>&1 &
 echo $! >"$TW_RUN_DIR/app.pid"
 for _ in $(seq 1 100); do
   if curl -fsS "http://$HOST:$PORT/healthz" >/dev/null 2>&1; then break; fi

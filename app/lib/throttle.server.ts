@@ -6,15 +6,21 @@ export const THROTTLE_WINDOW_SECONDS = 15 * 60;
 export const MAX_ACCOUNT_FAILURES = 5;
 export const MAX_ADDRESS_FAILURES = 30;
 
-/** The client's address: X-Forwarded-For only behind our own proxy, else loopback. */
+/** Set by scripts/serve.mjs from the socket; a client's own value is overwritten there. */
+export const CLIENT_ADDRESS_HEADER = "x-torquewright-client-address";
+
+/**
+ * The client's address: X-Forwarded-For only behind our own proxy (TRUST_PROXY=1),
+ * else the socket address our server reports. A server that reports none (a test
+ * calling an action directly) counts as one local address.
+ */
 export function clientAddress(request: Request, trustProxy = env().TRUST_PROXY === "1"): string {
   if (trustProxy) {
     const first = request.headers.get("X-Forwarded-For")?.split(",")[0]?.trim();
     if (first) return first.slice(0, 64);
   }
-  // react-router-serve does not hand the socket to loaders; our servers listen on
-  // loopback behind the proxy, so every untrusted request counts as one local address.
-  return "127.0.0.1";
+  const socket = request.headers.get(CLIENT_ADDRESS_HEADER)?.trim();
+  return socket ? socket.slice(0, 64) : "127.0.0.1";
 }
 
 export function normaliseEmail(email: string): string {

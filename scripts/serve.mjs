@@ -1,0 +1,46 @@
+// The production server: static assets, then the React Router request handler.
+// It differs from the stock server in one way: it tells the app the client's socket
+// address (used by sign-in throttling) in a header that clients cannot set themselves.
+//   node scripts/serve.mjs [build/server/index.js]
+import path from "node:path";
+import { fileURLToPath, pathToFileURL } from "node:url";
+import { createRequestHandler } from "@react-router/express";
+import compression from "compression";
+import express from "express";
+import morgan from "morgan";
+
+export const CLIENT_ADDRESS_HEADER = "x-torquewright-client-address";
+
+/** Whatever a client sent under CLIENT_ADDRESS_HEADER is replaced by what the socket says. */
+export function clientAddressMiddleware(req, _res, next) {
+  req.headers[CLIENT_ADDRESS_HEADER] = req.socket.remoteAddress ?? "";
+  next();
+}
+
+async function main() {
+  const buildPath = path.resolve(process.argv[2] ?? "build/server/index.js");
+  const build = await import(pathToFileURL(buildPath).href);
+  const clientDir = path.join(path.dirname(buildPath), "..", "client");
+  const port = Number(process.env.PORT ?? 3000);
+  const host = process.env.HOST ?? "127.0.0.1";
+
+  const app = express();
+  app.disable("x-powered-by");
+  app.use(compression());
+  app.use("/assets", express.static(path.join(clientDir, "assets"), { immutable: true, maxAge: "1y" }));
+  app.use(express.static(clientDir, { maxAge: "1h" }));
+  if (process.env.TW_ACCESS_LOG !== "0") app.use(morgan("tiny"));
+  app.use(clientAddressMiddleware);
+  app.all("*", createRequestHandler({ build, mode: process.env.NODE_ENV }));
+
+  const server = app.listen(port, host, () => {
+    console.log(`torquewright: listening on http://${host}:${port}`);
+  });
+  for (const signal of ["SIGTERM", "SIGINT"]) {
+    process.once(signal, () => server.close(() => process.exit(0)));
+  }
+}
+
+if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
+  await main();
+}
