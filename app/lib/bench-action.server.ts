@@ -6,7 +6,8 @@ import type { Db } from "./db.server";
 import type { SessionUser } from "./auth.server";
 import { applyIntent, computeBench, describeIntent, normaliseSpec, resolveFields, toCalcInput, FIELD_LABELS, type MeasuredField } from "./bench";
 import { errorKey, parseBenchIntent, type IntentErrors } from "./bench-intent.server";
-import { EDITABLE_STATUSES, evaluateSpec, getBenchState, loadParts, partLabel, saveRevision, staleDetails, type BenchState, type StaleSave } from "./packages.server";
+import { loadActiveRules } from "./fit-rules.server";
+import { EDITABLE_STATUSES, evaluateSpec, getBenchState, partLabel, saveRevision, staleDetails, type BenchState, type StaleSave } from "./packages.server";
 import { SLOT_BY_KEY } from "./slots";
 
 export type BenchActionResult =
@@ -22,7 +23,11 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
   const { action, expectedRevision } = parsed;
   const key = errorKey(action as never);
 
-  const row = await db.selectFrom("packages").select(["current_revision", "spec", "status"]).where("id", "=", packageId).executeTakeFirst();
+  // the package row and the active rules in parallel: one round trip's wait, not two
+  const [row, rules] = await Promise.all([
+    db.selectFrom("packages").select(["current_revision", "spec", "status"]).where("id", "=", packageId).executeTakeFirst(),
+    loadActiveRules(db),
+  ]);
   if (!row) throw data("This package does not exist.", { status: 404 });
   if (!EDITABLE_STATUSES.includes(row.status)) {
     return data<BenchActionResult>(
@@ -33,16 +38,17 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
   if (row.current_revision !== expectedRevision) return staleAnswer(db, packageId, expectedRevision);
 
   const before = normaliseSpec(row.spec);
+  const next = applyIntent(before, action);
+  // the new part arrives with the spec's other parts; it is checked before anything is saved
+  const ev = await evaluateSpec(db, next, true, rules);
   if (action.intent === "set-part") {
-    const part = (await loadParts(db, [action.partId], true)).get(action.partId);
+    const part = ev.parts.get(action.partId);
     const slot = SLOT_BY_KEY[action.slot]!;
     if (!part || part.archived) return data<BenchActionResult>({ ok: false, errors: { [key]: ["That part is not in the active catalog."] } }, { status: 400 });
     if (part.category !== slot.category) {
       return data<BenchActionResult>({ ok: false, errors: { [key]: [`A ${part.category.replace("_", " ")} part does not go in the ${slot.label.toLowerCase()} slot.`] } }, { status: 400 });
     }
   }
-  const next = applyIntent(before, action);
-  const ev = await evaluateSpec(db, next);
 
   // A typed value that makes the engine impossible is refused; parts that do not go
   // together are saved and reported by the fit rules.

@@ -18,7 +18,7 @@ import {
   type SpecChange,
 } from "./bench";
 import { buildRuleSnapshot, type PackageSnapshot } from "./rule-snapshot";
-import { evaluateRules, loadActiveRules, type Finding } from "./fit-rules.server";
+import { evaluateRules, loadActiveRules, type Finding, type RuleForEval } from "./fit-rules.server";
 
 export type { Finding };
 
@@ -154,9 +154,9 @@ export function snapshotFor(spec: BenchSpec, parts: ReadonlyMap<number, BenchPar
 }
 
 /** Recomputes a spec with calc/, builds its snapshot and evaluates the active fit rules. */
-export async function evaluateSpec(db: Db, raw: unknown, prices = true): Promise<Evaluation> {
+export async function evaluateSpec(db: Db, raw: unknown, prices = true, activeRules?: RuleForEval[]): Promise<Evaluation> {
   const spec = normaliseSpec(raw);
-  const [parts, rules] = await Promise.all([loadParts(db, partIds(spec), prices), loadActiveRules(db)]);
+  const [parts, rules] = await Promise.all([loadParts(db, partIds(spec), prices), activeRules ?? loadActiveRules(db)]);
   const computation = computeBench(toCalcInput(spec, resolveFields(spec, parts)));
   const snapshot = snapshotFor(spec, parts, computation);
   const findings = await evaluateRules(snapshot, rules);
@@ -357,38 +357,35 @@ export async function saveRevision(
 ): Promise<SaveOutcome> {
   const ev = evaluation ?? (await evaluateSpec(db, input.spec));
   const next = input.expectedRevision + 1;
-  const saved = await inTransaction(db, async (trx) => {
-    const updated = await trx
-      .updateTable("packages")
-      .set({
-        current_revision: next,
-        spec: JSON.stringify(ev.spec),
-        results: JSON.stringify(ev.computation),
-        rule_snapshot: JSON.stringify(ev.snapshot),
-        findings: JSON.stringify(ev.findings),
-        updated_at: sql`now()`,
-        ...syncColumns(ev.spec),
-      })
-      .where("id", "=", input.packageId)
-      .where("current_revision", "=", input.expectedRevision)
-      .returning("id")
-      .executeTakeFirst();
-    if (!updated) return false;
-    await trx
-      .insertInto("package_revisions")
-      .values({
-        package_id: input.packageId,
-        revision: next,
-        spec: JSON.stringify(ev.spec),
-        results: JSON.stringify(ev.computation),
-        rule_snapshot: JSON.stringify(ev.snapshot),
-        findings: JSON.stringify(ev.findings),
-        change: input.change,
-        saved_by: input.userId,
-      })
-      .execute();
-    return true;
-  });
+  // One statement: the conditional update and the revision insert commit together (or
+  // neither does), in one round trip, and the JSON is sent to the server once.
+  const saved = await db
+    .with("u", (q) =>
+      q
+        .updateTable("packages")
+        .set({
+          current_revision: next,
+          spec: JSON.stringify(ev.spec),
+          results: JSON.stringify(ev.computation),
+          rule_snapshot: JSON.stringify(ev.snapshot),
+          findings: JSON.stringify(ev.findings),
+          updated_at: sql`now()`,
+          ...syncColumns(ev.spec),
+        })
+        .where("id", "=", input.packageId)
+        .where("current_revision", "=", input.expectedRevision)
+        .returning(["id", "current_revision", "spec", "results", "rule_snapshot", "findings"]),
+    )
+    .insertInto("package_revisions")
+    .columns(["package_id", "revision", "spec", "results", "rule_snapshot", "findings", "change", "saved_by"])
+    .expression((eb) =>
+      eb
+        .selectFrom("u")
+        .select(["u.id", "u.current_revision", "u.spec", "u.results", "u.rule_snapshot", "u.findings", sql<string>`${input.change}::text`.as("change"), sql<number>`${input.userId}::integer`.as("saved_by")]),
+    )
+    .returning("revision")
+    .executeTakeFirst()
+    .then((r) => r !== undefined);
   if (saved) return { ok: true, revision: next, evaluation: ev };
   return staleDetails(db, input.packageId, input.expectedRevision);
 }
