@@ -175,9 +175,12 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
         onDragCancel={() => setDragging(null)}
         onDragEnd={onDragEnd}
       >
+        {/* on a phone: slots, then results, then the shelf (every slot also has its pick-list) */}
         <div className="grid grid-cols-1 gap-4 lg:grid-cols-[280px_minmax(0,1fr)_360px]">
-          <PartsShelf onParts={bench.remember} canEdit={canEdit} />
-          <div className="flex flex-col gap-4">
+          <div className="order-3 lg:order-none">
+            <PartsShelf onParts={bench.remember} canEdit={canEdit} />
+          </div>
+          <div className="order-1 flex flex-col gap-4 lg:order-none">
             <section aria-label="Engine slots" className="grid grid-cols-1 gap-2 rounded border border-steel-200 bg-steel-100 p-2 sm:grid-cols-[minmax(0,1fr)_auto_minmax(0,1fr)]">
               <div className="flex flex-col gap-2">{["head", "gasket", "cylinder", "rod"].map(slotCard)}</div>
               <div className="order-first flex justify-center sm:order-none">
@@ -191,6 +194,7 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
               <div className="grid grid-cols-1 gap-2 sm:grid-cols-2 xl:grid-cols-4">{SLOTS.filter((s) => s.group === "chassis").map((s) => slotCard(s.key))}</div>
             </section>
           </div>
+          <div className="order-2 lg:order-none">
           <ResultsPanel
             computation={bench.computation}
             findings={bench.base.findings}
@@ -205,6 +209,7 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
             onUseSuggested={(slot, id) => actions.pick(slot, id)}
             onUseSolved={(slot, field, value) => post({ intent: "set-measured", slot, field, value: String(value), unit: field === "gasketThicknessMm" ? "mm" : "cc" }, { intent: "set-measured", slot, field, value }, `${slot}.${field}`)}
           />
+          </div>
         </div>
         <DragOverlay>{dragging ? <div className="w-64 rounded border border-teal bg-white px-2 py-1.5 text-sm shadow-lg"><PartCardBody part={dragging} category={dragging.category} /></div> : null}</DragOverlay>
       </DndContext>

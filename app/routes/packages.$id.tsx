@@ -116,15 +116,16 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
             <button type="submit" className="rounded bg-ink px-3 py-1 font-semibold text-white">Compare</button>
           </Form>
           {compare ? <RevisionCompare compare={compare} /> : loaderData.compareAsked ? <p className="mt-2 text-sm text-red-text">One of those revisions does not exist.</p> : null}
-          <table className="mt-3 w-full text-left text-sm">
-            <thead className="text-xs text-steel-700"><tr><th className="py-1">#</th><th>Change</th><th>Saved</th><th>Findings</th><th /></tr></thead>
+          <div className="mt-3 overflow-x-auto">
+          <table className="w-full min-w-[32rem] text-left text-sm">
+            <thead className="text-xs text-steel-700"><tr><th className="py-1 pr-2">#</th><th className="pr-2">Change</th><th className="pr-2">Saved</th><th className="pr-2">Findings</th><th /></tr></thead>
             <tbody>
               {revisions.map((r) => (
                 <tr key={r.revision} className="border-t border-steel-100" data-testid={`revision-${r.revision}`}>
-                  <td className="num py-1">{r.revision}</td>
-                  <td>{r.change}</td>
-                  <td className="num text-steel-700">{r.savedBy ?? "—"} · {new Date(r.savedAt).toLocaleString()}</td>
-                  <td className="num">{r.findings}{r.conflicts ? <span className="text-red-text"> ({r.conflicts} conflict)</span> : null}</td>
+                  <td className="num py-1 pr-2 align-top">{r.revision}</td>
+                  <td className="pr-2 align-top">{r.change}</td>
+                  <td className="num pr-2 align-top text-steel-700">{r.savedBy ?? "—"} · {new Date(r.savedAt).toLocaleString()}</td>
+                  <td className="num pr-2 align-top whitespace-nowrap">{r.findings}{r.conflicts ? <span className="text-red-text"> ({r.conflicts} conflict)</span> : null}</td>
                   <td>
                     {loaderData.canEdit && r.revision !== header.revision ? (
                       <Form method="post">
@@ -139,6 +140,7 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
               ))}
             </tbody>
           </table>
+          </div>
         </section>
       </div>
     </main>

@@ -68,7 +68,23 @@ export default function Packages({ loaderData }: Route.ComponentProps) {
         <button type="submit" className="rounded bg-ink px-3 py-1.5 font-semibold text-white">Filter</button>
       </Form>
       <p className="mt-3 text-sm text-steel-700"><span className="num">{list.total}</span> package{list.total === 1 ? "" : "s"}</p>
-      <div className="mt-2 overflow-x-auto rounded border border-steel-200 bg-white">
+      {/* a phone gets one card per package; the table needs the width */}
+      <ul className="mt-2 flex flex-col gap-2 sm:hidden" data-testid="package-cards">
+        {list.rows.map((r) => (
+          <li key={r.id} className="rounded border border-steel-200 bg-white p-3 text-sm">
+            <div className="flex items-start justify-between gap-2">
+              <Link to={`/packages/${r.id}`} className="font-semibold text-teal-text underline">{r.name}</Link>
+              {r.isTemplate ? <span className="shrink-0 text-steel-700">Shop template</span> : <StatusBadge status={r.status} />}
+            </div>
+            {r.isTemplate ? null : <p className="mt-0.5 text-steel-700">{r.customerName} · {r.bikeLabel}</p>}
+            <p className="num mt-0.5 text-steel-700">
+              {r.powerHp != null ? `${r.powerHp} hp ${r.powerBasis ?? ""}` : "power not set"} · {r.builderName ?? "no builder"} · {new Date(r.updatedAt).toLocaleDateString()}
+            </p>
+          </li>
+        ))}
+        {list.rows.length === 0 ? <li className="rounded border border-steel-200 bg-white p-3 text-center text-sm text-steel-700">No package matches these filters.</li> : null}
+      </ul>
+      <div className="mt-2 hidden overflow-x-auto rounded border border-steel-200 bg-white sm:block">
         <table className="w-full text-left text-sm">
           <thead className="bg-steel-100 text-xs uppercase tracking-wide text-steel-700">
             <tr>

@@ -96,10 +96,10 @@ export function EngineSection({ fields, deckClearanceMm, units }: SectionNumbers
       <circle cx={CX} cy={crankPinY} r="7" fill="#0f8b8d" />
       <circle cx={CX} cy={crankY} r="5" fill="#f4f6f8" />
       {/* dimension lines */}
-      <g fill="#f4f6f8" fontSize="9" fontFamily="inherit">
-        <line x1={CX - b / 2} y1={barrelBottom + 8} x2={CX + b / 2} y2={barrelBottom + 8} stroke="#f4f6f8" strokeWidth="0.8" />
+      <g fill="#f4f6f8" fontSize="9" fontFamily="inherit" stroke="#0d1b2a" strokeWidth="3" paintOrder="stroke" strokeLinejoin="round">
+        <line x1={CX - b / 2} y1={barrelBottom + 8} x2={CX + b / 2} y2={barrelBottom + 8} stroke="#f4f6f8" strokeWidth="0.8" paintOrder="normal" />
         <text x={CX} y={barrelBottom + 19} textAnchor="middle">bore {fmtLine(bore.v, "length", units)}</text>
-        <text x={CX + throwR + 4} y={crankY + 3}>stroke {fmtLine(stroke.v, "length", units)}</text>
+        <text x={W - 6} y={crankY + 3} textAnchor="end">stroke {fmtLine(stroke.v, "length", units)}</text>
         <text x={8} y={height - 6} fill="#9aa7b4">deck and gasket ×{THIN}</text>
       </g>
     </svg>

@@ -3,7 +3,7 @@
 // cautions), the work shown, and the compression-target solver.
 import { useState } from "react";
 import { DCR_NOTE, solveChamberCcForRatio, solveDomeCcForRatio, solveGasketThicknessForRatio, type SpecResults } from "../../../calc";
-import type { BenchComputation, BenchPart, Resolved } from "~/lib/bench";
+import { FIELD_LABELS, type BenchComputation, type BenchPart, type Resolved } from "~/lib/bench";
 import { show, type Quantity, type Units } from "~/lib/bench-units";
 import type { Finding } from "~/lib/fit-rules.server";
 import { SLOTS } from "~/lib/slots";
@@ -43,7 +43,9 @@ export function ResultsPanel(props: {
 }) {
   const { computation: c, units } = props;
   const order = { conflict: 0, upgrade: 1, caution: 2 } as const;
-  const findings = [...props.findings].sort((a, b) => Number(Boolean(a.error)) - Number(Boolean(b.error)) || order[a.kind] - order[b.kind]);
+  // rules that could not be checked are not passes: they get their own list, apart from what the rules found
+  const findings = props.findings.filter((f) => !f.error).sort((a, b) => order[a.kind] - order[b.kind]);
+  const unchecked = props.findings.filter((f) => f.error);
   return (
     <section aria-labelledby="results-h" className="flex flex-col gap-3">
       <div className="flex items-center justify-between">
@@ -84,13 +86,13 @@ export function ResultsPanel(props: {
         <p className="text-xs text-steel-700">Set a rev limit to see piston speeds.</p>
       )}
       {c.missing.length > 0 ? (
-        <p className="text-xs text-steel-700">Still needed for every figure: {c.missing.join(", ")}.</p>
+        <p className="text-xs text-steel-700">Still needed for every figure: {c.missing.map(fieldLabel).join(", ")}.</p>
       ) : null}
       {c.inputErrors.length > 0 ? (
         <ul className="rounded border border-red bg-red/5 p-2 text-sm text-red-text" data-testid="input-errors">
           {c.inputErrors.map((e, i) => (
             <li key={i}>
-              Not computed: {e.field} {e.message}.
+              Not computed: {fieldLabel(e.field)} {e.message}.
             </li>
           ))}
         </ul>
@@ -112,6 +114,19 @@ export function ResultsPanel(props: {
             </li>
           ))}
         </ul>
+        {unchecked.length > 0 ? (
+          <div className="mt-3 rounded border border-dashed border-steel-500 bg-steel-50 p-2" data-testid="unchecked">
+            <h4 className="text-xs font-semibold uppercase tracking-wide text-steel-700">Could not be checked · {unchecked.length}</h4>
+            <p className="text-xs text-steel-700">These rules need a figure or a part this package does not have yet. Not checked is not a pass: fill it in, or check by hand.</p>
+            <ul className="mt-1 flex flex-col gap-1">
+              {unchecked.map((f) => (
+                <li key={`${f.ruleId}-${f.ruleVersion}`} className="text-sm" data-testid="finding-unchecked">
+                  <span className="font-semibold text-graphite">{f.ruleName}</span> <span className="text-steel-700">— {plainRuleError(f.error!)}</span>
+                </li>
+              ))}
+            </ul>
+          </div>
+        ) : null}
       </div>
 
       <Solver fields={props.fields} deckClearanceMm={props.deckClearanceMm} canEdit={props.canEdit} onUse={props.onUseSolved} />
@@ -141,15 +156,7 @@ export function ResultsPanel(props: {
 }
 
 function FindingItem({ f, parts, canEdit, onUse }: { f: Finding; parts: ReadonlyMap<number, BenchPart>; canEdit: boolean; onUse: (slot: string, id: number) => void }) {
-  const style = f.error ? "border-steel-300 text-steel-700" : { conflict: "border-red text-red-text", upgrade: "border-amber text-amber-text", caution: "border-steel-500 text-steel-700" }[f.kind];
-  if (f.error) {
-    return (
-      <li className={`rounded border-l-4 bg-white p-2 text-sm ${style.split(" ")[0]}`} data-testid="finding-unchecked">
-        <p className="text-xs font-semibold uppercase text-steel-700">Not checked · {f.ruleName}</p>
-        <p className="text-steel-700">{f.error}</p>
-      </li>
-    );
-  }
+  const style = { conflict: "border-red text-red-text", upgrade: "border-amber text-amber-text", caution: "border-steel-500 text-steel-700" }[f.kind];
   const slot = f.upgradeCategory ? SLOTS.find((s) => s.category === f.upgradeCategory) : undefined;
   const suggested = f.suggestedPartId != null ? parts.get(f.suggestedPartId) : undefined;
   return (
@@ -228,8 +235,38 @@ function Solver(props: { fields: Resolved; deckClearanceMm: number | null; canEd
           ) : null}
         </p>
       ) : (
-        <p className="mt-1 text-xs text-steel-700">Needs: {answer.errors.map((e) => `${e.field} ${e.message}`).join("; ")}</p>
+        <p className="mt-1 text-xs text-steel-700">Needs: {answer.errors.map((e) => `${fieldLabel(e.field)} ${e.message}`).join("; ")}</p>
       )}
     </div>
   );
+}
+
+const CALC_LABELS: Record<string, string> = { ...FIELD_LABELS, cylinders: "Cylinders" };
+
+/** A calc field's name as the bench shows it ("gasketBoreMm" → "Gasket bore"). */
+function fieldLabel(field: string): string {
+  return CALC_LABELS[field] ?? field;
+}
+
+// the rules' own names for a package's numbers, as the bench shows them
+const RULE_NUMBER_LABELS: Record<string, string> = {
+  power_hp: "power (hp)",
+  power_basis: "power basis",
+  rev_limit_rpm: "rev limit",
+  riser_in: "riser height (in)",
+  cr_static: "static compression",
+  cr_dynamic: "dynamic compression",
+  piston_speed_mean_ms: "mean piston speed",
+  piston_speed_peak_ms: "peak piston speed",
+  quench_mm: "quench",
+  deck_mm: "deck clearance",
+  bore_mm: "bore",
+  stroke_mm: "stroke",
+};
+
+/** "riser_in has no value in this package" → "needs riser height (in), which this package does not have yet". */
+function plainRuleError(error: string): string {
+  const m = /^([a-z_.]+) has no value in this package$/.exec(error);
+  if (!m) return error;
+  return `needs ${RULE_NUMBER_LABELS[m[1]!] ?? m[1]!.replace(/_/g, " ")}, which this package does not have yet`;
 }
