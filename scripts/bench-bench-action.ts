@@ -95,9 +95,22 @@ const port = await new Promise<number>((resolve, reject) => {
   });
 });
 const APP_URL = `http://127.0.0.1:${port}`;
-const server: ChildProcess = spawn(process.execPath, [path.join(ROOT, "node_modules/@react-router/serve/bin.js"), serverEntry], {
+// The production server (scripts/serve.mjs) without its access log; BENCH_NODE_ARGS passes
+// extra Node flags (e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof") for profiling.
+const nodeArgs = (process.env.BENCH_NODE_ARGS ?? "").split(" ").filter(Boolean);
+const server: ChildProcess = spawn(process.execPath, [...nodeArgs, path.join(ROOT, "scripts/serve.mjs"), serverEntry], {
   cwd: ROOT,
-  env: { ...process.env, PORT: String(port), HOST: "127.0.0.1", NODE_ENV: "production", APP_URL, DATABASE_URL, SESSION_SECRET, JOBS_WORKER: "0" },
+  env: {
+    ...process.env,
+    PORT: String(port),
+    HOST: "127.0.0.1",
+    NODE_ENV: "production",
+    APP_URL,
+    DATABASE_URL,
+    SESSION_SECRET,
+    JOBS_WORKER: "0",
+    TW_ACCESS_LOG: "0",
+  },
   stdio: ["ignore", "ignore", "inherit"],
 });
 let serverExited = false;

@@ -2,6 +2,7 @@
 // It differs from the stock server in one way: it tells the app the client's socket
 // address (used by sign-in throttling) in a header that clients cannot set themselves.
 //   node scripts/serve.mjs [build/server/index.js]
+import cluster from "node:cluster";
 import path from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { createRequestHandler } from "@react-router/express";
@@ -41,6 +42,30 @@ async function main() {
   }
 }
 
+// WEB_CONCURRENCY > 1 runs that many worker processes sharing the port (one per core is
+// the usual choice); they keep no state of their own, like servers behind a balancer.
 if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
-  await main();
+  const workers = Math.max(1, Number(process.env.WEB_CONCURRENCY ?? 1) || 1);
+  if (workers > 1 && cluster.isPrimary) {
+    for (let i = 0; i < workers; i++) cluster.fork();
+    let stopping = false;
+    cluster.on("exit", (worker, code) => {
+      if (!stopping) {
+        console.error(`torquewright: worker ${worker.process.pid} stopped (${code}); starting another`);
+        cluster.fork();
+      }
+    });
+    for (const signal of ["SIGTERM", "SIGINT"]) {
+      process.once(signal, () => {
+        stopping = true;
+        for (const w of Object.values(cluster.workers ?? {})) w?.process.kill("SIGTERM");
+        setTimeout(() => process.exit(0), 5000).unref();
+        cluster.on("exit", () => {
+          if (Object.keys(cluster.workers ?? {}).length === 0) process.exit(0);
+        });
+      });
+    }
+  } else {
+    await main();
+  }
 }
