@@ -17,8 +17,6 @@ fi
 # Local fakes of the hosted services, on loopback (scripts/local-services.ts).
 export TW_SMTP_PORT="${TW_SMTP_PORT:-2526}"
 export TW_MAIL_API_PORT="${TW_MAIL_API_PORT:-2527}"
-export TW_S3_PORT="${TW_S3_PORT:-4569}"
-export TW_PAY_PORT="${TW_PAY_PORT:-12111}"
 
 # Mail goes to the local catcher (and /dev/outbox shows it) unless SMTP_URL names a real server.
 if [ -z "${SMTP_URL:-}" ]; then
