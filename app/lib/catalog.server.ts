@@ -19,6 +19,11 @@ export async function listCategories(db: Db) {
   return db.selectFrom("part_categories").selectAll().orderBy("sort").orderBy("label").execute();
 }
 
+/** The categories as a form's options (built-in ones carry measurements). */
+export async function categoryOptions(db: Db): Promise<{ value: string; label: string; builtIn: boolean }[]> {
+  return (await listCategories(db)).map((c) => ({ value: c.slug, label: c.label, builtIn: c.built_in }));
+}
+
 export function slugFor(label: string): string {
   return label
     .trim()

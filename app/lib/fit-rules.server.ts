@@ -2,22 +2,13 @@
 // package snapshot against the active rules, and the preview of a new or changed rule
 // against every saved package.
 import { sql, type Kysely } from "kysely";
-import type { Database, RuleKind } from "../../db/schema";
+import type { Database, FitRule, RuleKind } from "../../db/schema";
 import { buildScope, compileConditionText, RuleEvalError, type CompiledCondition } from "./rule-condition.server";
 import type { PackageSnapshot } from "./rule-snapshot";
 
 export { checkCondition, CONDITION_LIMITS, type CheckResult } from "./rule-condition.server";
 
-export type RuleForEval = {
-  id: number;
-  version: number;
-  name: string;
-  kind: RuleKind;
-  condition: string;
-  message: string;
-  upgrade_category: string | null;
-  suggested_part_id: number | null;
-};
+export type RuleForEval = Pick<FitRule, "id" | "version" | "name" | "kind" | "condition" | "message" | "upgrade_category" | "suggested_part_id">;
 
 export type Finding = {
   ruleId: number;
@@ -207,14 +198,15 @@ function inTransaction<T>(db: Db, fn: (trx: Db) => Promise<T>): Promise<T> {
   return db.isTransaction ? fn(db) : db.transaction().execute((trx) => fn(trx));
 }
 
-export type RuleFields = { name: string; kind: RuleKind; condition: string; message: string; upgrade_category: string | null; suggested_part_id: number | null; active: boolean };
+export type RuleFields = Pick<FitRule, "name" | "kind" | "condition" | "message" | "upgrade_category" | "suggested_part_id" | "active">;
+
+/** Rules with the name of whoever changed them last. */
+function rulesWithAuthor(db: Db) {
+  return db.selectFrom("fit_rules").leftJoin("users", "users.id", "fit_rules.updated_by").selectAll("fit_rules").select("users.name as updated_by_name");
+}
 
 export async function listRules(db: Db) {
-  return db
-    .selectFrom("fit_rules")
-    .leftJoin("users", "users.id", "fit_rules.updated_by")
-    .selectAll("fit_rules")
-    .select("users.name as updated_by_name")
+  return rulesWithAuthor(db)
     .orderBy("fit_rules.active", "desc")
     .orderBy("fit_rules.kind")
     .orderBy("fit_rules.name")
@@ -223,11 +215,7 @@ export async function listRules(db: Db) {
 
 export async function getRule(db: Db, id: number) {
   if (!Number.isSafeInteger(id) || id <= 0) return undefined;
-  return db
-    .selectFrom("fit_rules")
-    .leftJoin("users", "users.id", "fit_rules.updated_by")
-    .selectAll("fit_rules")
-    .select("users.name as updated_by_name")
+  return rulesWithAuthor(db)
     .where("fit_rules.id", "=", id)
     .executeTakeFirst();
 }

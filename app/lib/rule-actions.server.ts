@@ -5,7 +5,7 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, redirect } from "react-router";
 import { pairCondition, pairSchema, ruleSchema } from "~/components/rules/schema";
 import type { SessionUser } from "./auth.server";
-import { listCategories } from "./catalog.server";
+import { categoryOptions, listCategories } from "./catalog.server";
 import { getDb } from "./db.server";
 import { checkCondition, createRule, previewRule, updateRule, type PreviewResult, type RuleFields } from "./fit-rules.server";
 
@@ -88,11 +88,11 @@ export async function handleRuleAction(request: Request, user: SessionUser, exis
 export async function ruleFormOptions() {
   const db = getDb();
   const [categories, parts] = await Promise.all([
-    listCategories(db),
+    categoryOptions(db),
     db.selectFrom("parts").select(["id", "part_number", "name", "category"]).where("archived_at", "is", null).orderBy("part_number").execute(),
   ]);
   return {
-    categories: categories.map((c) => ({ value: c.slug, label: c.label })),
+    categories,
     parts: parts.map((p) => ({ value: String(p.id), label: `${p.part_number} — ${p.name}`, category: p.category })),
   };
 }

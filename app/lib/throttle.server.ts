@@ -40,28 +40,27 @@ export async function secondsUntilAllowed(db: Db, email: string, ip: string, now
     .limit(1)
     .executeTakeFirst();
   const accountSince = success && success.created_at > since ? success.created_at : since;
-  const account = await db
-    .selectFrom("login_attempts")
-    .where("email", "=", key)
-    .where("succeeded", "=", false)
-    .where("created_at", ">", accountSince)
-    .orderBy("created_at", "desc")
-    .select("created_at")
-    .limit(MAX_ACCOUNT_FAILURES)
-    .execute();
-  const address = await db
-    .selectFrom("login_attempts")
-    .where("ip", "=", ip)
-    .where("succeeded", "=", false)
-    .where("created_at", ">", since)
-    .orderBy("created_at", "desc")
-    .select("created_at")
-    .limit(MAX_ADDRESS_FAILURES)
-    .execute();
+  const [account, address] = await Promise.all([
+    recentFailures(db, "email", key, accountSince, MAX_ACCOUNT_FAILURES),
+    recentFailures(db, "ip", ip, since, MAX_ADDRESS_FAILURES),
+  ]);
   const waits = [0];
   if (account.length >= MAX_ACCOUNT_FAILURES) waits.push(retryAfter(account.at(-1)!.created_at, now));
   if (address.length >= MAX_ADDRESS_FAILURES) waits.push(retryAfter(address.at(-1)!.created_at, now));
   return Math.max(...waits);
+}
+
+/** The newest `limit` failures for one account or one address since `since`. */
+function recentFailures(db: Db, column: "email" | "ip", value: string, since: Date, limit: number) {
+  return db
+    .selectFrom("login_attempts")
+    .where(column, "=", value)
+    .where("succeeded", "=", false)
+    .where("created_at", ">", since)
+    .orderBy("created_at", "desc")
+    .select("created_at")
+    .limit(limit)
+    .execute();
 }
 
 function retryAfter(oldestCounted: Date | string, now: Date): number {

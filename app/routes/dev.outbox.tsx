@@ -1,5 +1,6 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/dev.outbox";
+import { PageHeader } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth.server";
 import { fetchOutbox, requireLocalMail, type OutboxSummary } from "~/lib/outbox.server";
 
@@ -16,11 +17,7 @@ export default function Outbox({ loaderData }: Route.ComponentProps) {
   const { messages, problem } = loaderData;
   return (
     <main className="mx-auto max-w-5xl px-4 py-8">
-      <p className="text-sm font-semibold uppercase tracking-widest text-steel-700">Local mail server</p>
-      <h1 className="mt-1 text-3xl font-semibold text-ink">Outbox</h1>
-      <p className="mt-1 text-steel-700">
-        Every e-mail the app sent while running on this machine. Nothing here left the machine.
-      </p>
+      <PageHeader eyebrow="Local mail server" title="Outbox" lead="Every e-mail the app sent while running on this machine. Nothing here left the machine." />
       {problem ? (
         <p role="alert" className="mt-6 rounded border border-amber bg-white px-3 py-2 text-amber-text">
           The local mail server cannot be reached ({problem}). Mail waits in the queue and goes out when it is back.

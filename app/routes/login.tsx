@@ -4,7 +4,10 @@ import { useState } from "react";
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/login";
-import { AuthCard, FormAlert, serverFormErrors, SubmitButton, TextField } from "~/components/auth-form";
+import { AuthCard } from "~/components/auth-form";
+import { FormAlert, formErrorsOf } from "~/components/ui/alert";
+import { SubmitButton } from "~/components/ui/button";
+import { TextField } from "~/components/ui/field";
 import { authenticator, getUser, safeRedirect, SignInError } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { requireSameOrigin } from "~/lib/origin.server";
@@ -62,7 +65,7 @@ export default function Login({ actionData }: Route.ComponentProps) {
   return (
     <AuthCard title="Sign in" lead="Staff accounts of the shop. Customers open the link in their quote e-mail instead.">
       <Form method="post" {...getFormProps(form)} className="space-y-4">
-        <FormAlert id={form.errorId} errors={form.errors?.length ? form.errors : serverFormErrors(actionData?.result)} />
+        <FormAlert id={form.errorId} errors={formErrorsOf(form, actionData?.result)} />
         <input type="hidden" name="redirectTo" value={params.get("redirectTo") ?? ""} />
         <TextField label="E-mail" field={fields.email} type="email" autoComplete="username" autoFocus={attempt === 0} />
         <div key={attempt}>
@@ -74,7 +77,7 @@ export default function Login({ actionData }: Route.ComponentProps) {
             autoFocus={attempt > 0}
           />
         </div>
-        <SubmitButton busy={navigation.state !== "idle"}>Sign in</SubmitButton>
+        <SubmitButton wide busy={navigation.state !== "idle"}>Sign in</SubmitButton>
       </Form>
       <p className="mt-4 text-sm">
         <Link to="/reset" className="font-medium text-teal-text underline">

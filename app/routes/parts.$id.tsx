@@ -1,8 +1,12 @@
 import { data, Form } from "react-router";
 import type { Route } from "./+types/parts.$id";
+import { PartHistory } from "~/components/parts/history";
 import { PartForm } from "~/components/parts/part-form";
+import { Caution, Notice } from "~/components/ui/alert";
+import { buttonClass } from "~/components/ui/button";
+import { PageHeader, Section } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth.server";
-import { getPart, getPartHistory, listCategories } from "~/lib/catalog.server";
+import { categoryOptions, getPart, getPartHistory } from "~/lib/catalog.server";
 import { getDb } from "~/lib/db.server";
 import { handleArchive, handlePartSave } from "~/lib/part-actions.server";
 import { attributeFieldsFor, unitText } from "~/lib/part-attributes";
@@ -21,12 +25,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const part = await findPart(params.id);
   const db = getDb();
   const showPrices = can(user.role, "prices:read");
-  const [history, categories] = await Promise.all([getPartHistory(db, part.id), listCategories(db)]);
+  const [history, categories] = await Promise.all([getPartHistory(db, part.id), categoryOptions(db)]);
   return {
     canEdit: can(user.role, "parts:edit"),
     showPrices,
     saved: new URL(request.url).searchParams.get("saved"),
-    categories: categories.map((c) => ({ value: c.slug, label: c.label })),
+    categories,
     part: {
       id: part.id,
       part_number: part.part_number,
@@ -60,7 +64,6 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 const money = new Intl.NumberFormat("en-US", { style: "currency", currency: "USD" });
-const dateFmt = new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" });
 
 export default function PartPage({ loaderData }: Route.ComponentProps) {
   const { part, history, canEdit, showPrices, categories, saved } = loaderData;
@@ -68,26 +71,22 @@ export default function PartPage({ loaderData }: Route.ComponentProps) {
   const attrs = part.attributes as Record<string, number>;
   return (
     <main className="mx-auto max-w-7xl px-4 py-8">
-      <p className="text-sm">
-        <a href="/parts" className="text-teal-text underline">
-          Parts catalog
-        </a>
-      </p>
-      <h1 className="mt-1 text-3xl font-semibold text-ink">
-        <span className="font-mono">{part.part_number}</span> · {part.name}
-      </h1>
-      <p className="mt-1 text-steel-700">
-        {label} · {part.maker} · version <span className="num">{part.version}</span>
-        {part.stock ? " · stock part" : ""}
-      </p>
-      {part.archived_at ? (
-        <p className="mt-3 rounded border border-amber bg-white px-3 py-2 text-sm font-medium text-amber-text">Archived: hidden from the parts shelf; packages that used it still show it.</p>
-      ) : null}
-      {saved ? (
-        <p role="status" className="mt-3 rounded border border-green bg-white px-3 py-2 text-sm font-medium text-green-text">
-          Saved as version {saved}.
-        </p>
-      ) : null}
+      <PageHeader
+        back={{ to: "/parts", label: "Parts catalog" }}
+        title={
+          <>
+            <span className="font-mono">{part.part_number}</span> · {part.name}
+          </>
+        }
+        lead={
+          <>
+            {label} · {part.maker} · version <span className="num">{part.version}</span>
+            {part.stock ? " · stock part" : ""}
+          </>
+        }
+      />
+      {part.archived_at ? <Caution className="mt-3 font-medium">Archived: hidden from the parts shelf; packages that used it still show it.</Caution> : null}
+      {saved ? <Notice className="mt-3">Saved as version {saved}.</Notice> : null}
       <div className="mt-6 grid gap-8 lg:grid-cols-[1fr_24rem]">
         <div className="space-y-6">
           <section className="rounded border border-steel-200 bg-white p-4 text-sm">
@@ -118,10 +117,7 @@ export default function PartPage({ loaderData }: Route.ComponentProps) {
             <p className="mt-3 text-xs text-steel-700">Fit and torque every part to its maker's instructions.</p>
           </section>
           {canEdit ? (
-            <section aria-labelledby="edit-h">
-              <h2 id="edit-h" className="mb-2 text-lg font-semibold text-ink">
-                Change this part
-              </h2>
+            <Section id="edit-h" title="Change this part">
               <PartForm
                 key={part.version}
                 editing
@@ -142,31 +138,16 @@ export default function PartPage({ loaderData }: Route.ComponentProps) {
               />
               <Form method="post" className="mt-3">
                 <input type="hidden" name="intent" value={part.archived_at ? "restore" : "archive"} />
-                <button type="submit" className="rounded border border-steel-300 bg-white px-4 py-2 font-semibold text-ink hover:bg-steel-100">
+                <button type="submit" className={buttonClass("quiet")}>
                   {part.archived_at ? "Restore to the shelf" : "Archive (hide from the shelf)"}
                 </button>
               </Form>
-            </section>
+            </Section>
           ) : null}
         </div>
-        <aside aria-labelledby="hist-h">
-          <h2 id="hist-h" className="mb-2 text-lg font-semibold text-ink">
-            History
-          </h2>
-          <ol className="space-y-2">
-            {history.map((h) => (
-              <li key={h.version} className="rounded border border-steel-200 bg-white p-3 text-sm">
-                <p>
-                  <span className="num font-semibold text-ink">v{h.version}</span> · {h.change}
-                </p>
-                <p className="text-steel-700">
-                  <span className="num">{dateFmt.format(new Date(h.changed_at))} UTC</span>
-                  {h.changed_by_name ? ` · ${h.changed_by_name}` : ""}
-                </p>
-              </li>
-            ))}
-          </ol>
-        </aside>
+        <Section as="aside" id="hist-h" title="History">
+          <PartHistory versions={history} />
+        </Section>
       </div>
     </main>
   );

@@ -1,5 +1,6 @@
 import { data, Form, useNavigation } from "react-router";
 import type { Route } from "./+types/parts.import";
+import { PageHeader } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth.server";
 import { CSV_COLUMNS, MAX_CSV_BYTES } from "~/components/parts/csv-columns";
 import { checkPartsCsv, importPartsCsv, type CsvCheck } from "~/lib/csv.server";
@@ -44,15 +45,11 @@ export default function ImportParts({ actionData }: Route.ComponentProps) {
   const check = actionData?.check && actionData.check.ok ? actionData.check : null;
   return (
     <main className="mx-auto max-w-5xl px-4 py-8">
-      <p className="text-sm">
-        <a href="/parts" className="text-teal-text underline">
-          Parts catalog
-        </a>
-      </p>
-      <h1 className="mt-1 text-3xl font-semibold text-ink">Import parts from CSV</h1>
-      <p className="mt-1 text-steel-700">
-        Check a file first: every row is validated like the part form, and nothing is written until you import. An import writes every row or none. Up to {MAX_CSV_BYTES / 1024 / 1024} MB.
-      </p>
+      <PageHeader
+        back={{ to: "/parts", label: "Parts catalog" }}
+        title="Import parts from CSV"
+        lead={`Check a file first: every row is validated like the part form, and nothing is written until you import. An import writes every row or none. Up to ${MAX_CSV_BYTES / 1024 / 1024} MB.`}
+      />
       <Form method="post" encType="multipart/form-data" className="mt-6 flex flex-wrap items-end gap-3 rounded border border-steel-200 bg-white p-4">
         <div>
           <label htmlFor="file" className="block text-sm font-semibold text-graphite">

@@ -1,13 +1,14 @@
 import type { Route } from "./+types/parts.new";
 import { PartForm } from "~/components/parts/part-form";
+import { PageHeader } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth.server";
-import { listCategories } from "~/lib/catalog.server";
+import { categoryOptions } from "~/lib/catalog.server";
 import { getDb } from "~/lib/db.server";
 import { handlePartSave } from "~/lib/part-actions.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
   await requirePermission(request, "parts:edit");
-  return { categories: (await listCategories(getDb())).map((c) => ({ value: c.slug, label: c.label })) };
+  return { categories: await categoryOptions(getDb()) };
 }
 
 export async function action({ request }: Route.ActionArgs) {
@@ -20,13 +21,7 @@ const EMPTY = { part_number: "", category: "", maker: "", name: "", price: "", l
 export default function NewPart({ loaderData }: Route.ComponentProps) {
   return (
     <main className="mx-auto max-w-3xl px-4 py-8">
-      <p className="text-sm">
-        <a href="/parts" className="text-teal-text underline">
-          Parts catalog
-        </a>
-      </p>
-      <h1 className="mt-1 text-3xl font-semibold text-ink">New part</h1>
-      <p className="mt-1 text-steel-700">Measurements come from the maker's spec sheet; the fit rules and the bench read them.</p>
+      <PageHeader back={{ to: "/parts", label: "Parts catalog" }} title="New part" lead="Measurements come from the maker's spec sheet; the fit rules and the bench read them." />
       <div className="mt-6">
         <PartForm defaults={EMPTY} categories={loaderData.categories} editing={false} />
       </div>

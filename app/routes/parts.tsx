@@ -2,8 +2,11 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/parts";
+import { buttonClass } from "~/components/ui/button";
+import { controlClass, Field } from "~/components/ui/field";
+import { PageHeader } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth.server";
-import { addCategory, listCategories, partForRole, PART_SORTS, searchParts, type PartSort } from "~/lib/catalog.server";
+import { addCategory, categoryOptions, partForRole, PART_SORTS, searchParts, type PartSort } from "~/lib/catalog.server";
 import { getDb } from "~/lib/db.server";
 import { can } from "~/lib/permissions";
 
@@ -22,12 +25,12 @@ export async function loader({ request }: Route.LoaderArgs) {
     page: Math.min(Number(p.get("page")) || 1, 10_000),
   };
   const db = getDb();
-  const [found, categories] = await Promise.all([searchParts(db, { ...search, category: search.category || undefined }), listCategories(db)]);
+  const [found, categories] = await Promise.all([searchParts(db, { ...search, category: search.category || undefined }), categoryOptions(db)]);
   return {
     search,
     showPrices,
     canEdit: can(user.role, "parts:edit"),
-    categories: categories.map((c) => ({ value: c.slug, label: c.label })),
+    categories,
     total: found.total,
     pages: found.pages,
     rows: found.rows.map((r) => {
@@ -76,27 +79,27 @@ export default function Parts({ loaderData, actionData }: Route.ComponentProps) 
   };
   return (
     <main className="mx-auto max-w-7xl px-4 py-8">
-      <div className="flex flex-wrap items-end justify-between gap-3">
-        <div>
-          <h1 className="text-3xl font-semibold text-ink">Parts catalog</h1>
-          <p className="mt-1 text-steel-700">The parts shelf the bench draws from. Archived parts stay readable on the packages that used them.</p>
-        </div>
-        <div className="flex gap-2">
-          <a href="/parts/export.csv" className="rounded border border-steel-300 bg-white px-4 py-2 font-semibold text-ink hover:bg-steel-100">
-            Export CSV
-          </a>
-          {canEdit ? (
-            <>
-              <Link to="/parts/import" className="rounded border border-steel-300 bg-white px-4 py-2 font-semibold text-ink hover:bg-steel-100">
-                Import CSV
-              </Link>
-              <Link to="/parts/new" className="rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink">
-                New part
-              </Link>
-            </>
-          ) : null}
-        </div>
-      </div>
+      <PageHeader
+        title="Parts catalog"
+        lead="The parts shelf the bench draws from. Archived parts stay readable on the packages that used them."
+        actions={
+          <>
+            <a href="/parts/export.csv" className={buttonClass("quiet")}>
+              Export CSV
+            </a>
+            {canEdit ? (
+              <>
+                <Link to="/parts/import" className={buttonClass("quiet")}>
+                  Import CSV
+                </Link>
+                <Link to="/parts/new" className={buttonClass()}>
+                  New part
+                </Link>
+              </>
+            ) : null}
+          </>
+        }
+      />
       <Form method="get" className="mt-6 flex flex-wrap items-end gap-3 rounded border border-steel-200 bg-white p-3">
         <div className="min-w-56 flex-1">
           <label htmlFor="q" className="block text-sm font-semibold text-graphite">
@@ -184,20 +187,12 @@ export default function Parts({ loaderData, actionData }: Route.ComponentProps) 
       {canEdit ? (
         <Form method="post" className="mt-8 flex max-w-xl flex-wrap items-end gap-3 rounded border border-steel-200 bg-white p-3">
           <div className="flex-1">
-            <label htmlFor="label" className="block text-sm font-semibold text-graphite">
-              Add a category
-            </label>
-            <input id="label" name="label" aria-invalid={actionData?.result?.error?.label ? true : undefined} aria-describedby="label-error" className="mt-1 block w-full rounded border border-steel-300 px-3 py-2" />
-            <div id="label-error" aria-live="polite">
-              {actionData?.result?.error?.label?.map((e) => (
-                <p key={e} className="mt-1 text-sm font-medium text-red-text">
-                  {e}
-                </p>
-              ))}
-              {actionData?.added ? <p className="mt-1 text-sm text-green-text">Added “{actionData.added}”.</p> : null}
-            </div>
+            <Field id="label" label="Add a category" hint="A category the shop adds carries no measurements; its parts are found by number, name, maker and tags." errorId="label-error" errors={actionData?.result?.error?.label}>
+              <input id="label" name="label" aria-invalid={actionData?.result?.error?.label ? true : undefined} aria-describedby={actionData?.result?.error?.label ? "label-error label-hint" : "label-hint"} className={controlClass(actionData?.result?.error?.label)} />
+            </Field>
+            {actionData?.added ? <p role="status" className="mt-1 text-sm text-green-text">Added “{actionData.added}”.</p> : null}
           </div>
-          <button type="submit" className="rounded border border-teal-dark bg-white px-4 py-2 font-semibold text-teal-text">
+          <button type="submit" className={buttonClass("secondary")}>
             Add
           </button>
         </Form>

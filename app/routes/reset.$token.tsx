@@ -3,7 +3,10 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/reset.$token";
-import { AuthCard, FormAlert, serverFormErrors, SubmitButton, TextField } from "~/components/auth-form";
+import { AuthCard } from "~/components/auth-form";
+import { FormAlert, formErrorsOf } from "~/components/ui/alert";
+import { SubmitButton } from "~/components/ui/button";
+import { TextField } from "~/components/ui/field";
 import { hashPassword } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { requireSameOrigin } from "~/lib/origin.server";
@@ -51,10 +54,10 @@ export default function ChooseNewPassword({ loaderData, actionData }: Route.Comp
   return (
     <AuthCard title="Choose a new password" lead={<>For <strong>{loaderData.email}</strong>. Every other session of this account ends.</>}>
       <Form method="post" {...getFormProps(form)} className="space-y-4">
-        <FormAlert id={form.errorId} errors={form.errors?.length ? form.errors : serverFormErrors(actionData?.result)} />
+        <FormAlert id={form.errorId} errors={formErrorsOf(form, actionData?.result)} />
         <TextField label="New password" field={fields.password} type="password" autoComplete="new-password" hint="At least 10 characters." autoFocus />
         <TextField label="New password again" field={fields.confirm} type="password" autoComplete="new-password" />
-        <SubmitButton busy={navigation.state !== "idle"}>Save the new password</SubmitButton>
+        <SubmitButton wide busy={navigation.state !== "idle"}>Save the new password</SubmitButton>
       </Form>
     </AuthCard>
   );

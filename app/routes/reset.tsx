@@ -3,7 +3,10 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/reset";
-import { AuthCard, Notice, SubmitButton, TextField } from "~/components/auth-form";
+import { AuthCard } from "~/components/auth-form";
+import { Notice } from "~/components/ui/alert";
+import { SubmitButton } from "~/components/ui/button";
+import { TextField } from "~/components/ui/field";
 import { getDb } from "~/lib/db.server";
 import { requireSameOrigin } from "~/lib/origin.server";
 import { requestPasswordReset } from "~/lib/reset.server";
@@ -41,7 +44,7 @@ export default function ResetRequest({ actionData }: Route.ComponentProps) {
           <label htmlFor="reset-website">Website</label>
           <input id="reset-website" name="website" tabIndex={-1} autoComplete="off" />
         </div>
-        <SubmitButton busy={navigation.state !== "idle"}>Send the link</SubmitButton>
+        <SubmitButton wide busy={navigation.state !== "idle"}>Send the link</SubmitButton>
       </Form>
       <p className="mt-4 text-sm">
         <Link to="/login" className="font-medium text-teal-text underline">Back to sign-in</Link>

@@ -2,15 +2,18 @@ import { data } from "react-router";
 import type { Route } from "./+types/rules.$id";
 import { RuleHistory } from "~/components/rules/history";
 import { KindBadge } from "~/components/rules/kind-badge";
-import { ReferencePanel } from "~/components/rules/reference-panel";
+import { WithReference } from "~/components/rules/with-reference";
 import { RuleForm } from "~/components/rules/rule-form";
+import { Notice } from "~/components/ui/alert";
+import { PageHeader, Section } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { getRule, getRuleHistory } from "~/lib/fit-rules.server";
 import { can } from "~/lib/permissions";
 
-const iso = (d: unknown) => new Date(d as string).toISOString();
 import { handleRuleAction, ruleFormOptions } from "~/lib/rule-actions.server";
+
+const iso = (d: unknown) => new Date(d as string).toISOString();
 
 async function findRule(id: string | undefined) {
   const rule = await getRule(getDb(), Number(id));
@@ -42,31 +45,26 @@ export default function RulePage({ loaderData }: Route.ComponentProps) {
   const { rule, history, canEdit, options, saved } = loaderData;
   return (
     <main className="mx-auto max-w-7xl px-4 py-8">
-      <p className="text-sm">
-        <a href="/rules" className="text-teal-text underline">
-          Fit rules
-        </a>
-      </p>
-      <h1 className="mt-1 flex flex-wrap items-center gap-3 text-3xl font-semibold text-ink">
-        {rule.name} <KindBadge kind={rule.kind} />
-        {rule.active ? null : <span className="text-base font-semibold uppercase text-steel-700">off</span>}
-      </h1>
-      <p className="mt-1 text-steel-700">
-        Version <span className="num">{rule.version}</span>
-        {rule.updated_by_name ? ` · last changed by ${rule.updated_by_name}` : ""}
-      </p>
-      {saved ? (
-        <p role="status" className="mt-3 rounded border border-green bg-white px-3 py-2 text-sm font-medium text-green-text">
-          Saved as version {saved}.
-        </p>
-      ) : null}
-      <div className="mt-6 grid gap-8 lg:grid-cols-[1fr_26rem]">
+      <PageHeader
+        back={{ to: "/rules", label: "Fit rules" }}
+        title={
+          <>
+            {rule.name} <KindBadge kind={rule.kind} />
+            {rule.active ? null : <span className="text-base font-semibold uppercase text-steel-700">off</span>}
+          </>
+        }
+        lead={
+          <>
+            Version <span className="num">{rule.version}</span>
+            {rule.updated_by_name ? ` · last changed by ${rule.updated_by_name}` : ""}
+          </>
+        }
+      />
+      {saved ? <Notice className="mt-3">Saved as version {saved}.</Notice> : null}
+      <WithReference>
         <div className="space-y-8">
           {canEdit && options ? (
-            <section aria-labelledby="edit-h">
-              <h2 id="edit-h" className="mb-2 text-lg font-semibold text-ink">
-                Change this rule
-              </h2>
+            <Section id="edit-h" title="Change this rule">
               <RuleForm
                 key={rule.version}
                 editing
@@ -83,7 +81,7 @@ export default function RulePage({ loaderData }: Route.ComponentProps) {
                   version: rule.version,
                 }}
               />
-            </section>
+            </Section>
           ) : (
             <section className="rounded border border-steel-200 bg-white p-4 text-sm">
               <p className="font-semibold text-graphite">Condition</p>
@@ -92,17 +90,11 @@ export default function RulePage({ loaderData }: Route.ComponentProps) {
               <p className="text-ink">{rule.message}</p>
             </section>
           )}
-          <section aria-labelledby="history-h">
-            <h2 id="history-h" className="mb-2 text-lg font-semibold text-ink">
-              History
-            </h2>
+          <Section id="history-h" title="History">
             <RuleHistory versions={history} />
-          </section>
+          </Section>
         </div>
-        <aside>
-          <ReferencePanel />
-        </aside>
-      </div>
+      </WithReference>
     </main>
   );
 }

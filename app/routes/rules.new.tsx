@@ -1,7 +1,8 @@
 import type { Route } from "./+types/rules.new";
 import { PairForm } from "~/components/rules/pair-form";
-import { ReferencePanel } from "~/components/rules/reference-panel";
+import { WithReference } from "~/components/rules/with-reference";
 import { RuleForm } from "~/components/rules/rule-form";
+import { PageHeader } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth.server";
 import { handleRuleAction, ruleFormOptions } from "~/lib/rule-actions.server";
 
@@ -20,22 +21,13 @@ const EMPTY = { name: "", kind: "caution", condition: "", message: "", upgrade_c
 export default function NewRule({ loaderData }: Route.ComponentProps) {
   return (
     <main className="mx-auto max-w-7xl px-4 py-8">
-      <p className="text-sm">
-        <a href="/rules" className="text-teal-text underline">
-          Fit rules
-        </a>
-      </p>
-      <h1 className="mt-1 text-3xl font-semibold text-ink">New fit rule</h1>
-      <p className="mt-1 text-steel-700">Preview shows which saved packages the rule would flag before anything is saved.</p>
-      <div className="mt-6 grid gap-8 lg:grid-cols-[1fr_26rem]">
+      <PageHeader back={{ to: "/rules", label: "Fit rules" }} title="New fit rule" lead="Preview shows which saved packages the rule would flag before anything is saved." />
+      <WithReference>
         <div className="space-y-8">
           <RuleForm defaults={EMPTY} categories={loaderData.categories} parts={loaderData.parts} editing={false} />
           <PairForm />
         </div>
-        <aside>
-          <ReferencePanel />
-        </aside>
-      </div>
+      </WithReference>
     </main>
   );
 }

@@ -1,7 +1,10 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/rules";
 import { KindBadge } from "~/components/rules/kind-badge";
-import { ReferencePanel } from "~/components/rules/reference-panel";
+import { WithReference } from "~/components/rules/with-reference";
+import { Caution } from "~/components/ui/alert";
+import { buttonClass } from "~/components/ui/button";
+import { PageHeader } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { listRules } from "~/lib/fit-rules.server";
@@ -24,21 +27,21 @@ export default function Rules({ loaderData }: Route.ComponentProps) {
   const { rules, canEdit } = loaderData;
   return (
     <main className="mx-auto max-w-7xl px-4 py-8">
-      <div className="flex flex-wrap items-end justify-between gap-3">
-        <div>
-          <h1 className="text-3xl font-semibold text-ink">Fit rules</h1>
-          <p className="mt-1 text-steel-700">The shop's rules, checked against every package on the bench. Conflicts first, then upgrades, then cautions.</p>
-        </div>
-        {canEdit ? (
-          <Link to="/rules/new" className="rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink">
-            New rule
-          </Link>
-        ) : null}
-      </div>
-      <p className="mt-3 rounded border border-amber bg-white px-3 py-2 text-sm text-amber-text">
+      <PageHeader
+        title="Fit rules"
+        lead="The shop's rules, checked against every package on the bench. Conflicts first, then upgrades, then cautions."
+        actions={
+          canEdit ? (
+            <Link to="/rules/new" className={buttonClass()}>
+              New rule
+            </Link>
+          ) : null
+        }
+      />
+      <Caution className="mt-3">
         Rules help the staff remember the shop's practice; they do not replace the parts maker's instructions, local regulations or a qualified technician's check of brakes, axles and suspension.
-      </p>
-      <div className="mt-6 grid gap-8 lg:grid-cols-[1fr_26rem]">
+      </Caution>
+      <WithReference>
         <section aria-labelledby="list-h">
           <h2 id="list-h" className="sr-only">
             Rules
@@ -79,10 +82,7 @@ export default function Rules({ loaderData }: Route.ComponentProps) {
             </table>
           )}
         </section>
-        <aside>
-          <ReferencePanel />
-        </aside>
-      </div>
+      </WithReference>
     </main>
   );
 }

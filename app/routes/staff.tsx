@@ -1,9 +1,12 @@
-import { getFormProps, getSelectProps, useForm } from "@conform-to/react";
+import { getFormProps, useForm, type FieldMetadata } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, useFetcher, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/staff";
-import { FieldErrors, FormAlert, Notice, serverFormErrors, TextField } from "~/components/auth-form";
+import { FormAlert, formErrorsOf, Notice } from "~/components/ui/alert";
+import { SubmitButton } from "~/components/ui/button";
+import { SelectField, TextField } from "~/components/ui/field";
+import { PageHeader } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { ROLE_LABELS, ROLES, type Role } from "~/lib/permissions";
@@ -78,8 +81,7 @@ export default function Staff({ loaderData }: Route.ComponentProps) {
   const { staff, invites, me } = loaderData;
   return (
     <main className="mx-auto max-w-7xl px-4 py-8">
-      <h1 className="text-3xl font-semibold text-ink">Staff</h1>
-      <p className="mt-1 text-steel-700">Who signs in, and with which role. Changes apply on their next click.</p>
+      <PageHeader title="Staff" lead="Who signs in, and with which role. Changes apply on their next click." />
       <div className="mt-6 grid gap-8 lg:grid-cols-[1fr_22rem]">
         <section aria-labelledby="accounts">
           <h2 id="accounts" className="text-lg font-semibold text-ink">Accounts</h2>
@@ -134,37 +136,22 @@ function InviteForm() {
       <p className="mt-1 text-sm text-steel-700">They get a link, valid for 72 hours, to choose their name and password.</p>
       <fetcher.Form method="post" {...getFormProps(form)} className="mt-3 space-y-3">
         {fetcher.data?.done && fetcher.state === "idle" ? <Notice>{fetcher.data.done}</Notice> : null}
-        <FormAlert id={form.errorId} errors={form.errors?.length ? form.errors : serverFormErrors(fetcher.data?.result)} />
+        <FormAlert id={form.errorId} errors={formErrorsOf(form, fetcher.data?.result)} />
         <input type="hidden" name="intent" value="invite" />
         <TextField label="E-mail" field={fields.email as never} type="email" autoComplete="off" />
         <RoleSelect field={fields.role as never} label="Role" />
-        <button type="submit" disabled={fetcher.state !== "idle"} className="w-full rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink disabled:opacity-60">
+        <SubmitButton wide busy={fetcher.state !== "idle"}>
           Send invite
-        </button>
+        </SubmitButton>
       </fetcher.Form>
     </section>
   );
 }
 
-type FieldLike = Parameters<typeof getSelectProps>[0];
+const ROLE_OPTIONS = ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 
-function RoleSelect({ field, label, compact }: { field: FieldLike; label: string; compact?: boolean }) {
-  const props = getSelectProps(field);
-  return (
-    <div>
-      <label htmlFor={field.id} className={compact ? "sr-only" : "block text-sm font-semibold text-graphite"}>
-        {label}
-      </label>
-      <select {...props} key={props.key} className="mt-1 block w-full rounded border border-steel-300 bg-white px-2 py-2 text-ink">
-        {ROLES.map((r) => (
-          <option key={r} value={r}>
-            {ROLE_LABELS[r]}
-          </option>
-        ))}
-      </select>
-      <FieldErrors id={field.errorId} errors={field.errors} />
-    </div>
-  );
+function RoleSelect({ field, label, compact }: { field: FieldMetadata<string>; label: string; compact?: boolean }) {
+  return <SelectField field={field} label={label} labelHidden={compact} options={ROLE_OPTIONS} />;
 }
 
 type StaffUser = Route.ComponentProps["loaderData"]["staff"][number];
@@ -192,7 +179,7 @@ function StaffRow({ user, isMe }: { user: StaffUser; isMe: boolean }) {
         <div aria-live="polite">
           {fetcher.data?.done && fetcher.state === "idle" ? <p className="mt-1 text-sm text-green-text">{fetcher.data.done}</p> : null}
         </div>
-        <FormAlert id={form.errorId} errors={form.errors?.length ? form.errors : serverFormErrors(fetcher.data?.result)} />
+        <FormAlert id={form.errorId} errors={formErrorsOf(form, fetcher.data?.result)} />
       </div>
       <fetcher.Form method="post" {...getFormProps(form)} className="flex items-end gap-2">
         <input type="hidden" name="intent" value="role" />

@@ -6,6 +6,7 @@ import { neutralise } from "~/lib/csv.server";
 import { getDb } from "~/lib/db.server";
 import { action as importAction } from "~/routes/parts.import";
 import { loader as exportLoader } from "~/routes/parts.export[.]csv";
+import { args, run } from "../support/route";
 import { createTestUser, requestAs, type TestUser } from "../support/auth";
 
 const db = getDb();
@@ -17,18 +18,6 @@ beforeAll(async () => {
   for (const r of ["owner", "builder", "apprentice"] as const) users[r] = await createTestUser(db, r);
 });
 
-async function run(fn: () => Promise<unknown>): Promise<{ status: number; value: any }> {
-  try {
-    const v: any = await fn();
-    if (v instanceof Response) return { status: v.status, value: v };
-    return { status: v?.init?.status ?? 200, value: v?.data ?? v };
-  } catch (t: any) {
-    if (t instanceof Response) return { status: t.status, value: t };
-    if (t?.init) return { status: t.init.status, value: t.data };
-    throw t;
-  }
-}
-const args = (request: Request) => ({ request, params: {}, context: {} }) as never;
 
 async function upload(who: TestUser, csv: string | Blob, intent = "preview") {
   const body = new FormData();

@@ -5,6 +5,7 @@ import { getDb } from "~/lib/db.server";
 import { action as idAction, loader as idLoader } from "~/routes/parts.$id";
 import { action as newAction } from "~/routes/parts.new";
 import { loader as listLoader } from "~/routes/parts";
+import { args, post, run } from "../support/route";
 import { createTestUser, form, requestAs, type TestUser } from "../support/auth";
 
 const db = getDb();
@@ -16,19 +17,6 @@ beforeAll(async () => {
   for (const r of ["owner", "builder", "service_writer", "apprentice"] as const) users[r] = await createTestUser(db, r);
 });
 
-async function run(fn: () => Promise<unknown>): Promise<{ status: number; value: any; location: string | null }> {
-  try {
-    const v: any = await fn();
-    if (v instanceof Response) return { status: v.status, value: v, location: v.headers.get("Location") };
-    return { status: v?.init?.status ?? 200, value: v?.data ?? v, location: null };
-  } catch (t: any) {
-    if (t instanceof Response) return { status: t.status, value: t, location: t.headers.get("Location") };
-    if (t?.init) return { status: t.init.status, value: t.data, location: null };
-    throw t;
-  }
-}
-const args = (request: Request, params: Record<string, string> = {}) => ({ request, params, context: {} }) as never;
-const post = (who: TestUser, path: string, body: Record<string, string>) => requestAs(who, path, { method: "POST", body: form(body) });
 
 function cylinder(pn: string, over: Record<string, string> = {}) {
   return { intent: "save", part_number: pn, category: "cylinders", maker: "Ironvale", name: "Big-bore pair", price: "1349.00", labour_hours: "6.5", tags: "big-bore, Plated", "attributes.boreMm": "104.8", ...over };

@@ -7,6 +7,7 @@ import { buildRuleSnapshot } from "~/lib/rule-snapshot";
 import { action as newAction, loader as newLoader } from "~/routes/rules.new";
 import { action as editAction, loader as ruleLoader } from "~/routes/rules.$id";
 import { loader as listLoader } from "~/routes/rules";
+import { args, post, run } from "../support/route";
 import { createTestUser, form, requestAs, type TestUser } from "../support/auth";
 
 const db = getDb();
@@ -18,20 +19,6 @@ beforeAll(async () => {
   for (const r of ["owner", "builder", "service_writer", "apprentice"] as const) users[r] = await createTestUser(db, r);
 });
 
-async function run<T>(fn: () => Promise<T>): Promise<{ status: number; value: any; location: string | null }> {
-  try {
-    const v: any = await fn();
-    if (v instanceof Response) return { status: v.status, value: v, location: v.headers.get("Location") };
-    return { status: v?.init?.status ?? 200, value: v?.data ?? v, location: null };
-  } catch (t: any) {
-    if (t instanceof Response) return { status: t.status, value: t, location: t.headers.get("Location") };
-    if (t?.init) return { status: t.init.status, value: t.data, location: null };
-    throw t;
-  }
-}
-
-const post = async (who: TestUser, path: string, body: Record<string, string>) => requestAs(who, path, { method: "POST", body: form(body) });
-const args = (request: Request, params: Record<string, string> = {}) => ({ request, params, context: {} }) as never;
 
 function ruleBody(over: Record<string, string> = {}) {
   return { intent: "save", name: `Axle check ${tag()}`, kind: "upgrade", condition: 'power_hp > 145 and has("stock-axle-adjusters")', message: "Fit locking adjusters.", upgrade_category: "axle_adjusters", active: "on", ...over };
