@@ -8,7 +8,10 @@ import { FormAlert, formErrorsOf } from "~/components/ui/alert";
 import { SubmitButton } from "~/components/ui/button";
 import { TextField } from "~/components/ui/field";
 import { hashPassword } from "~/lib/auth.server";
+import { Honeypot } from "~/components/ui/honeypot";
 import { getDb } from "~/lib/db.server";
+import { FORM_NOT_FROM_PAGE } from "~/lib/honeypot";
+import { honeypotStamp, trippedHoneypot } from "~/lib/honeypot.server";
 import { requireSameOrigin } from "~/lib/origin.server";
 import { NewPasswordFields, passwordsMatch } from "~/lib/passwords";
 import { ROLE_LABELS } from "~/lib/permissions";
@@ -25,15 +28,19 @@ const AcceptSchema = z
 
 export async function loader({ params }: Route.LoaderArgs) {
   const check = await checkToken(getDb(), "invite", params.token);
-  if (!check.ok) return { problem: TOKEN_PROBLEMS.invite[check.reason], invite: null };
-  return { problem: null, invite: { email: check.row.email, role: check.row.role ?? "apprentice" } };
+  if (!check.ok) return { problem: TOKEN_PROBLEMS.invite[check.reason], invite: null, ...honeypotStamp() };
+  return { problem: null, invite: { email: check.row.email, role: check.row.role ?? "apprentice" }, ...honeypotStamp() };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
   requireSameOrigin(request);
-  const submission = parseWithZod(await request.formData(), { schema: AcceptSchema });
+  const formData = await request.formData();
+  const submission = parseWithZod(formData, { schema: AcceptSchema });
   if (submission.status !== "success") {
     return data({ result: submission.reply({ hideFields: ["password", "confirm"] }) }, { status: 400 });
+  }
+  if (trippedHoneypot(formData)) {
+    return data({ result: submission.reply({ formErrors: [FORM_NOT_FROM_PAGE], hideFields: ["password", "confirm"] }) }, { status: 400 });
   }
   const db = getDb();
   const passwordHash = await hashPassword(submission.value.password);
@@ -91,6 +98,7 @@ export default function AcceptInvite({ loaderData, actionData }: Route.Component
     >
       <Form method="post" {...getFormProps(form)} className="space-y-4">
         <FormAlert id={form.errorId} errors={formErrorsOf(form, actionData?.result)} />
+        <Honeypot stamp={loaderData.stamp} />
         <TextField label="Your name" field={fields.name} autoComplete="name" autoFocus />
         <TextField label="Password" field={fields.password} type="password" autoComplete="new-password" hint="At least 10 characters." />
         <TextField label="Password again" field={fields.confirm} type="password" autoComplete="new-password" />

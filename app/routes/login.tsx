@@ -9,7 +9,10 @@ import { FormAlert, formErrorsOf } from "~/components/ui/alert";
 import { SubmitButton } from "~/components/ui/button";
 import { TextField } from "~/components/ui/field";
 import { authenticator, getUser, safeRedirect, SignInError } from "~/lib/auth.server";
+import { Honeypot } from "~/components/ui/honeypot";
 import { getDb } from "~/lib/db.server";
+import { FORM_NOT_FROM_PAGE } from "~/lib/honeypot";
+import { honeypotStamp, trippedHoneypot } from "~/lib/honeypot.server";
 import { requireSameOrigin } from "~/lib/origin.server";
 import { createSession } from "~/lib/session.server";
 
@@ -22,16 +25,19 @@ export const LoginSchema = z.object({
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request);
   if (user) throw redirect(safeRedirect(new URL(request.url).searchParams.get("redirectTo")));
-  return null;
+  return honeypotStamp();
 }
 
 export async function action({ request }: Route.ActionArgs) {
   requireSameOrigin(request);
   // The form strategy reads the body itself, so parse a copy.
-  const submission = parseWithZod(await request.clone().formData(), { schema: LoginSchema });
+  const formData = await request.clone().formData();
+  const submission = parseWithZod(formData, { schema: LoginSchema });
   if (submission.status !== "success") {
     return data({ result: submission.reply({ hideFields: ["password"] }) }, { status: 400 });
   }
+  // a script, not a person: no password is checked
+  if (trippedHoneypot(formData)) return data({ result: submission.reply({ formErrors: [FORM_NOT_FROM_PAGE], hideFields: ["password"] }) }, { status: 400 });
   try {
     const user = await authenticator.authenticate("password", request);
     const setCookie = await createSession(getDb(), user.id);
@@ -45,7 +51,7 @@ export async function action({ request }: Route.ActionArgs) {
   }
 }
 
-export default function Login({ actionData }: Route.ComponentProps) {
+export default function Login({ loaderData, actionData }: Route.ComponentProps) {
   const [params] = useSearchParams();
   const navigation = useNavigation();
   const [form, fields] = useForm({
@@ -67,6 +73,7 @@ export default function Login({ actionData }: Route.ComponentProps) {
       <Form method="post" {...getFormProps(form)} className="space-y-4">
         <FormAlert id={form.errorId} errors={formErrorsOf(form, actionData?.result)} />
         <input type="hidden" name="redirectTo" value={params.get("redirectTo") ?? ""} />
+        <Honeypot stamp={loaderData.stamp} />
         <TextField label="E-mail" field={fields.email} type="email" autoComplete="username" autoFocus={attempt === 0} />
         <div key={attempt}>
           <TextField

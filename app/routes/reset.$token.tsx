@@ -8,7 +8,10 @@ import { FormAlert, formErrorsOf } from "~/components/ui/alert";
 import { SubmitButton } from "~/components/ui/button";
 import { TextField } from "~/components/ui/field";
 import { hashPassword } from "~/lib/auth.server";
+import { Honeypot } from "~/components/ui/honeypot";
 import { getDb } from "~/lib/db.server";
+import { FORM_NOT_FROM_PAGE } from "~/lib/honeypot";
+import { honeypotStamp, trippedHoneypot } from "~/lib/honeypot.server";
 import { requireSameOrigin } from "~/lib/origin.server";
 import { NewPasswordFields, passwordsMatch } from "~/lib/passwords";
 import { resetPassword } from "~/lib/reset.server";
@@ -19,14 +22,19 @@ const NewPasswordSchema = z.object(NewPasswordFields).superRefine(passwordsMatch
 
 export async function loader({ params }: Route.LoaderArgs) {
   const check = await checkToken(getDb(), "reset", params.token);
-  return check.ok ? { problem: null, email: check.row.email } : { problem: TOKEN_PROBLEMS.reset[check.reason], email: null };
+  const page = check.ok ? { problem: null, email: check.row.email } : { problem: TOKEN_PROBLEMS.reset[check.reason], email: null };
+  return { ...page, ...honeypotStamp() };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
   requireSameOrigin(request);
-  const submission = parseWithZod(await request.formData(), { schema: NewPasswordSchema });
+  const formData = await request.formData();
+  const submission = parseWithZod(formData, { schema: NewPasswordSchema });
   if (submission.status !== "success") {
     return data({ result: submission.reply({ hideFields: ["password", "confirm"] }) }, { status: 400 });
+  }
+  if (trippedHoneypot(formData)) {
+    return data({ result: submission.reply({ formErrors: [FORM_NOT_FROM_PAGE], hideFields: ["password", "confirm"] }) }, { status: 400 });
   }
   const db = getDb();
   const outcome = await resetPassword(db, params.token, await hashPassword(submission.value.password));
@@ -55,6 +63,7 @@ export default function ChooseNewPassword({ loaderData, actionData }: Route.Comp
     <AuthCard title="Choose a new password" lead={<>For <strong>{loaderData.email}</strong>. Every other session of this account ends.</>}>
       <Form method="post" {...getFormProps(form)} className="space-y-4">
         <FormAlert id={form.errorId} errors={formErrorsOf(form, actionData?.result)} />
+        <Honeypot stamp={loaderData.stamp} />
         <TextField label="New password" field={fields.password} type="password" autoComplete="new-password" hint="At least 10 characters." autoFocus />
         <TextField label="New password again" field={fields.confirm} type="password" autoComplete="new-password" />
         <SubmitButton wide busy={navigation.state !== "idle"}>Save the new password</SubmitButton>

@@ -11,11 +11,12 @@ import {
 import { action, loader } from "~/routes/login";
 import { action as logout } from "~/routes/logout";
 import { cookieFor, createTestUser, form, requestAs, signedOutRequest } from "../support/auth";
+import { asFromPage } from "../support/honeypot";
 
 type Reply = { init: { status: number; headers?: Record<string, string> }; data: { result: { error: Record<string, string[]>; initialValue: Record<string, string> } } };
 const args = (request: Request) => ({ request, params: {}, context: {} }) as never;
 const post = (fields: Record<string, string>, headers?: HeadersInit) =>
-  action(args(signedOutRequest("/login", { method: "POST", body: form(fields), headers })));
+  action(args(signedOutRequest("/login", { method: "POST", body: form(asFromPage(fields)), headers })));
 
 describe("sign-in", () => {
   it("signs in with the right password: a session cookie and a redirect to where the user was going", async () => {

@@ -4,6 +4,7 @@ import { randomBytes } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startMailCatcher, type MailCatcher } from "../../scripts/services/mail-catcher";
 import { form, createTestUser, requestAs, signedOutRequest } from "../support/auth";
+import { asFromPage } from "../support/honeypot";
 import { linkIn, listCaught, mailFor, waitFor } from "../support/mail";
 
 let catcher: MailCatcher = await startMailCatcher({ quiet: true });
@@ -34,7 +35,7 @@ afterAll(async () => {
 });
 
 async function signIn(email: string, password: string) {
-  return (await login.action(args(signedOutRequest("/login", { method: "POST", body: form({ email, password }) })))) as Response;
+  return (await login.action(args(signedOutRequest("/login", { method: "POST", body: form(asFromPage({ email, password })) })))) as Response;
 }
 
 describe("invite by e-mail", () => {
@@ -55,7 +56,7 @@ describe("invite by e-mail", () => {
     expect(page.invite).toEqual({ email, role: "builder" });
 
     const accept = (await invite.action(
-      args(signedOutRequest(link.pathname, { method: "POST", body: form({ name: "Oren Vashti", password: "long-enough-pass", confirm: "long-enough-pass" }) }), { token }),
+      args(signedOutRequest(link.pathname, { method: "POST", body: form(asFromPage({ name: "Oren Vashti", password: "long-enough-pass", confirm: "long-enough-pass" })) }), { token }),
     )) as Response;
     expect(accept.status).toBe(302);
     expect(accept.headers.get("Set-Cookie")).toMatch(/^tw_session=/);
@@ -71,7 +72,7 @@ describe("invite by e-mail", () => {
     const again = await invite.loader(args(signedOutRequest(link.pathname), { token }));
     expect(again.problem).toMatch(/already been used/);
     const reuse = (await invite.action(
-      args(signedOutRequest(link.pathname, { method: "POST", body: form({ name: "Someone Else", password: "another-pass-9", confirm: "another-pass-9" }) }), { token }),
+      args(signedOutRequest(link.pathname, { method: "POST", body: form(asFromPage({ name: "Someone Else", password: "another-pass-9", confirm: "another-pass-9" })) }), { token }),
     )) as { init: { status: number }; data: { result: { error: Record<string, string[]> } } };
     expect(reuse.init.status).toBe(410);
     expect(reuse.data.result.error[""]).toEqual([expect.stringMatching(/already been used/)]);
@@ -107,14 +108,14 @@ describe("password reset by e-mail", () => {
     const { cookieFor } = await import("../support/auth");
     const oldCookie = await cookieFor(user);
 
-    const answer = await resetRequest.action(args(signedOutRequest("/reset", { method: "POST", body: form({ email: user.email.toUpperCase() }) })));
+    const answer = await resetRequest.action(args(signedOutRequest("/reset", { method: "POST", body: form(asFromPage({ email: user.email.toUpperCase() })) })));
     expect((answer as { sent: boolean }).sent).toBe(true);
     const link = linkIn((await mailFor(catcher.apiUrl, user.email)).text, "/reset/");
     const token = link.pathname.split("/")[2]!;
 
     expect((await resetToken.loader(args(signedOutRequest(link.pathname), { token }))).email).toBe(user.email);
     const done = (await resetToken.action(
-      args(signedOutRequest(link.pathname, { method: "POST", body: form({ password: "fresh-password-77", confirm: "fresh-password-77" }) }), { token }),
+      args(signedOutRequest(link.pathname, { method: "POST", body: form(asFromPage({ password: "fresh-password-77", confirm: "fresh-password-77" })) }), { token }),
     )) as Response;
     expect(done.status).toBe(302);
 
@@ -124,7 +125,7 @@ describe("password reset by e-mail", () => {
     expect(await getUser(signedOutRequest("/", { headers: { Cookie: oldCookie } }))).toBeNull();
 
     const reused = (await resetToken.action(
-      args(signedOutRequest(link.pathname, { method: "POST", body: form({ password: "third-password-88", confirm: "third-password-88" }) }), { token }),
+      args(signedOutRequest(link.pathname, { method: "POST", body: form(asFromPage({ password: "third-password-88", confirm: "third-password-88" })) }), { token }),
     )) as { init: { status: number }; data: { result: { error: Record<string, string[]> } } };
     expect(reused.init.status).toBe(410);
     expect(reused.data.result.error[""]![0]).toMatch(/already been used/);
@@ -132,7 +133,7 @@ describe("password reset by e-mail", () => {
 
   it("answers the same for an unknown address, and sends nothing", async () => {
     const email = unique("nobody");
-    const answer = await resetRequest.action(args(signedOutRequest("/reset", { method: "POST", body: form({ email }) })));
+    const answer = await resetRequest.action(args(signedOutRequest("/reset", { method: "POST", body: form(asFromPage({ email })) })));
     expect(answer).toMatchObject({ sent: true });
     await new Promise((r) => setTimeout(r, 1500));
     expect((await listCaught(catcher.apiUrl)).some((m) => m.to.includes(email))).toBe(false);
