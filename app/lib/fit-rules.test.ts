@@ -1,6 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { checkCondition, CONDITION_LIMITS, evaluateRules, previewAgainst, compileCondition, type RuleForEval } from "./fit-rules.server";
+import { conditionError } from "./rule-actions.server";
 import { compileConditionText } from "./rule-condition.server";
 import { buildRuleSnapshot, type RuleSnapshotInput } from "./rule-snapshot";
 import { FUNCTIONS, SLOT_OBJECTS, TOP_LEVEL_NAMES } from "./rule-names";
@@ -96,6 +97,31 @@ describe("checkCondition refuses a hostile corpus with a message that points at 
       expect(r.fragment).toBe(fragment);
       expect(r.index).toBe(text.indexOf(fragment));
     }
+  });
+
+  it.each([
+    // the offending node's text, and its place when it stands in the condition once
+    ["power_hp   =   200", /Assignment/, "power_hp = 200", 0],
+    ["cr_static > 9 and has('a', 'b')", /takes 1 value/, 'has("a", "b")', 18],
+    ["cr_static > 9 and (cam.lift_mm) ^ cr_static > 1", /plain number/, "(cam.lift_mm) ^ cr_static", 18],
+    ["power_hp > 1 and cylinder.nonsense > 1", /not an attribute of cylinder/, "nonsense", 26],
+    // the same name twice: which one is meant is not certain, so no place is given
+    ["pi > 3 and pi < 4", /Unknown name "pi"/, "pi", undefined],
+    // mathjs prints 1000.0 as 1000: the text is not found, so no place is claimed
+    ["2 ^ 1000.0 > 1", /between -10 and 10/, "2 ^ 1000", undefined],
+    // a name inside a longer name is not that name
+    ["quench > 1 and quench_mm > 1", /Unknown name "quench"/, "quench", 0],
+  ] as const)("points at the offending part of %j", (text, message, fragment, index) => {
+    const r = refusal(text);
+    expect(r.message).toMatch(message);
+    expect(r.fragment).toBe(fragment);
+    expect(r.index).toBe(index);
+  });
+
+  it("says where only when it is certain", () => {
+    expect(conditionError(refusal("power_hp > 1 and pi > 2"))).toBe('Unknown name "pi": use one of the names listed in the reference (at character 18: “pi”)');
+    expect(conditionError(refusal("pi > 3 and pi < 4"))).toBe('Unknown name "pi": use one of the names listed in the reference (in “pi”)');
+    expect(conditionError(refusal("power_hp > 145 and"))).toMatch(/^The condition could not be read: .* \(at character \d+/);
   });
 
   it("refuses something that is not text at all", () => {

@@ -11,9 +11,11 @@ import { checkCondition, createRule, previewRule, updateRule, type PreviewResult
 
 export type RuleActionData = { form: "rule" | "pair"; result: SubmissionResult<string[]>; preview: PreviewResult | null; stale?: number };
 
-function conditionError(check: Extract<ReturnType<typeof checkCondition>, { ok: false }>): string {
-  const where = check.index !== undefined ? ` (at character ${check.index + 1}${check.fragment ? `: “${check.fragment.slice(0, 40)}”` : ""})` : check.fragment ? ` (at “${check.fragment.slice(0, 40)}”)` : "";
-  return `${check.message}${where}`;
+/** The checker's refusal with where it is: "at character n" only when the place is certain. */
+export function conditionError(check: Extract<ReturnType<typeof checkCondition>, { ok: false }>): string {
+  const piece = check.fragment ? `“${check.fragment.slice(0, 40)}${check.fragment.length > 40 ? "…" : ""}”` : "";
+  if (check.index !== undefined) return `${check.message} (at character ${check.index + 1}${piece ? `: ${piece}` : ""})`;
+  return piece ? `${check.message} (in ${piece})` : check.message;
 }
 
 export async function handleRuleAction(request: Request, user: SessionUser, existing: { id: number } | null) {

@@ -86,14 +86,40 @@ function finite(v: number, what: string): number {
   return v;
 }
 
-function locate(text: string, fragment: string | undefined, word = false): number | undefined {
+const WORD_CHAR = /[A-Za-z0-9_]/;
+
+/**
+ * Where `fragment` (an offending node's own text, as mathjs prints it) stands in the
+ * condition, or undefined when that is not certain. mathjs keeps no positions, so the
+ * node's text is looked for in the condition ignoring spaces and the kind of quotes
+ * (the ways its printing differs from common writing), as whole tokens (a name inside
+ * a longer name, or 1000 inside 1000.5, is not it), and an index is given only when it
+ * stands there exactly once.
+ */
+export function locateOnce(text: string, fragment: string | undefined): number | undefined {
   if (!fragment) return undefined;
-  if (word) {
-    const m = new RegExp(`(?<![A-Za-z0-9_.])${fragment.replace(/[.*+?^${}()|[\]\\]/g, "\\$&")}(?![A-Za-z0-9_])`).exec(text);
-    if (m) return m.index;
+  const norm = (c: string) => (c === "'" ? '"' : c);
+  const at: number[] = [];
+  let compact = "";
+  for (let i = 0; i < text.length; i++) {
+    if (/\s/.test(text[i]!)) continue;
+    compact += norm(text[i]!);
+    at.push(i);
   }
-  const i = text.indexOf(fragment);
-  return i >= 0 ? i : undefined;
+  const needle = [...fragment].filter((c) => !/\s/.test(c)).map(norm).join("");
+  if (!needle) return undefined;
+  const startsWord = WORD_CHAR.test(needle[0]!);
+  const endsWord = WORD_CHAR.test(needle.at(-1)!);
+  let found: number | undefined;
+  for (let from = compact.indexOf(needle); from >= 0; from = compact.indexOf(needle, from + 1)) {
+    const start = at[from]!;
+    const end = at[from + needle.length - 1]! + 1;
+    if (startsWord && start > 0 && WORD_CHAR.test(text[start - 1]!)) continue;
+    if (endsWord && end < text.length && (WORD_CHAR.test(text[end]!) || (text[end] === "." && /\d/.test(text[end + 1] ?? "")))) continue;
+    if (found !== undefined) return undefined; // more than one place: not sure which
+    found = start;
+  }
+  return found;
 }
 
 function nodeText(node: MathNode): string {
@@ -128,7 +154,7 @@ type Acc = { names: Set<string>; functions: Set<string>; reads: Map<string, Read
 
 function refuse(acc: Acc, message: string, node?: MathNode, word?: string): never {
   const fragment = word ?? (node ? nodeText(node) : undefined);
-  throw new Refusal(message, fragment, locate(acc.text, fragment, word !== undefined));
+  throw new Refusal(message, fragment, locateOnce(acc.text, fragment));
 }
 
 function walk(node: MathNode, depth: number, acc: Acc): Checked {
@@ -413,7 +439,7 @@ function analyse(text: unknown): { ok: true; compiled: CompiledCondition } | Ext
       const msg = e instanceof Error ? e.message : String(e);
       const ch = /\(char (\d+)\)/.exec(msg);
       const index = ch ? Math.max(0, Number(ch[1]) - 1) : undefined;
-      return { ok: false, message: `The condition could not be read: ${msg.replace(/\s*\(char \d+\)/, "")}${index !== undefined ? ` at character ${index + 1}` : ""}`, index, fragment: index !== undefined ? text.slice(index, index + 12) : undefined };
+      return { ok: false, message: `The condition could not be read: ${msg.replace(/\s*\(char \d+\)/, "")}`, index, fragment: index !== undefined ? text.slice(index, index + 12) : undefined };
     }
     const acc: Acc = { names: new Set(), functions: new Set(), reads: new Map(), nodes: 0, text };
     const top = walk(root, 0, acc);

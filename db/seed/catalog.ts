@@ -147,7 +147,7 @@ function demoRules(lockingId: number | null, clutchId: number | null, brakeId: n
       name: "Cam lift beyond the valve springs' rating",
       kind: "conflict",
       condition: 'filled("cam") and filled("springs") and cam.lift_mm > springs.max_lift_mm',
-      message: "The cam lifts the valves further than the springs are rated for: they can bind. Fit springs rated for at least the cam's lift.",
+      message: "The cam lifts the valves further than the springs are rated for: they can bind. Fit the springs the cam maker lists for this lift and check coil-bind and retainer clearance to the maker's figures.",
       upgrade_category: null,
       suggested_part_id: null,
       active: true,

@@ -48,3 +48,26 @@ test("the owner writes a rule: a forbidden expression is refused with a message,
   await expect(page.getByText("Saved as version 1.")).toBeVisible();
   await expect(page.getByText("First version.")).toBeVisible();
 });
+
+test("the owner checks a CSV file: the bad row is shown with its reason, and nothing is written", async ({ page }) => {
+  const stamp = Date.now().toString(36).toUpperCase();
+  const good = `TW-E2E-IMP-${stamp}-A`;
+  const bad = `TW-E2E-IMP-${stamp}-B`;
+  const csv = [
+    "part_number,category,maker,name,price,labour_hours,tags,stock,attributes,notes",
+    `${good},cylinders,Ironvale,Good pair,1199,2,big-bore,no,boreMm=104.8,`,
+    `${bad},cylinders,Ironvale,Oversize pair,1199,2,big-bore,no,boreMm=150,`,
+  ].join("\n");
+  await loginAs(page, "owner");
+  await page.goto("/parts/import");
+  await page.getByLabel("CSV file").setInputFiles({ name: "parts.csv", mimeType: "text/csv", buffer: Buffer.from(csv) });
+  await page.getByRole("button", { name: "Check the file" }).click();
+  await expect(page.getByRole("heading", { name: "2 rows: 1 valid, 1 with problems" })).toBeVisible();
+  const problem = page.getByRole("listitem").filter({ hasText: bad });
+  await expect(problem).toContainText("Line 3");
+  await expect(problem).toContainText("Bore must be between 50 and 130 mm");
+  await expect(page.getByRole("listitem").filter({ hasText: good })).toHaveCount(0);
+  await expect(page.getByRole("button", { name: /^Import/ })).toHaveCount(0);
+  await page.goto(`/parts?q=${encodeURIComponent(`TW-E2E-IMP-${stamp}`)}&archived=1`);
+  await expect(page.getByText("No part matches. Clear the search or the category.")).toBeVisible();
+});
