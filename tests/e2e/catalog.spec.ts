@@ -23,7 +23,10 @@ test("the owner adds a part: a bad bore is refused beside its field, the rest is
   await expect(page).toHaveURL(/\/parts\/\d+\?saved=1$/);
   await expect(page.getByRole("heading", { level: 1 })).toContainText(pn);
   await expect(page.getByText("104.8 mm")).toBeVisible();
-  await expect(page.getByText("v1 · Created")).toBeVisible();
+  const first = page.getByRole("complementary", { name: "History" }).getByRole("listitem").first();
+  await expect(first).toContainText("v1");
+  await expect(first).toContainText("Created");
+  await expect(first).toContainText("First version.");
 });
 
 test("the owner writes a rule: a forbidden expression is refused with a message, a good one previews and saves", async ({ page }) => {
@@ -47,6 +50,16 @@ test("the owner writes a rule: a forbidden expression is refused with a message,
   await expect(page).toHaveURL(/\/rules\/\d+\?saved=1$/);
   await expect(page.getByText("Saved as version 1.")).toBeVisible();
   await expect(page.getByText("First version.")).toBeVisible();
+  // a second version: the history shows the condition's change in the same type as the code
+  const edit = page.locator("form#rule");
+  await edit.getByLabel("Condition").fill('power_hp > 150 and has("stock-axle-adjusters")');
+  await edit.getByLabel("What changed and why (kept in the history)").fill("Line moved to 150 hp");
+  await edit.getByRole("button", { name: "Save a new version" }).click();
+  await expect(page.getByText("Saved as version 2.")).toBeVisible();
+  const change = page.getByRole("region", { name: "History" }).getByRole("listitem").first();
+  await expect(change).toContainText("Line moved to 150 hp");
+  await expect(change.locator("ins", { hasText: "power_hp > 150" })).toHaveClass(/font-mono/);
+  await expect(change.locator("del", { hasText: "power_hp > 145" })).toHaveClass(/font-mono/);
 });
 
 test("the owner checks a CSV file: the bad row is shown with its reason, and nothing is written", async ({ page }) => {
