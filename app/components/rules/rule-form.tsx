@@ -52,7 +52,7 @@ export function RuleForm({ defaults, categories, parts, editing }: { defaults: R
         <SelectField field={fields.kind} label="Kind" options={KIND_OPTIONS} onChange={setKind} />
         <CheckboxField field={fields.active} label="Active (checked on every package)" className="self-end pb-2" />
       </div>
-      <TextAreaField field={fields.condition} label="Condition" mono hint={'For example: power_hp > 145 and has("stock-axle-adjusters"). The names you can use are listed beside this form.'} />
+      <TextAreaField field={fields.condition} label="Condition" mono hint={'For example: power_hp > 145 and has("stock-axle-adjusters"). Every name and function you can use is listed under “What a condition can use” on this page.'} />
       <TextAreaField field={fields.message} label="Message for the staff" hint="What the builder and service writer read when the rule flags a package." />
       {kind === "upgrade" ? (
         <div className="grid gap-4 sm:grid-cols-2">
