@@ -4,8 +4,8 @@
 // the user's pending actions so they can be applied on top of the newer revision.
 import { useEffect, useMemo, useRef, useState } from "react";
 import { useFetcher } from "react-router";
-import { applyIntent, computeBench, resolveFields, toCalcInput, type BenchIntent, type BenchPart } from "./bench";
-import type { BenchActionResult } from "./bench-action.server";
+import { applyIntent, computeBench, resolveFields, ruleInfoOf, ruleKey, toCalcInput, withRuleInfo, type BenchFinding, type BenchIntent, type BenchPart, type RuleInfo } from "./bench";
+import type { BenchActionResult, SavedState } from "./bench-action.server";
 import type { BenchState } from "./packages.server";
 
 export interface QueuedAction {
@@ -18,6 +18,13 @@ export interface QueuedAction {
 }
 
 export type StaleInfo = Extract<BenchActionResult, { stale: unknown }>;
+
+/** A saved answer as the bench shows it: its findings with the rule names the base already had, or the answer brought. */
+export function savedToState(saved: SavedState, base: BenchState): BenchState {
+  const known = new Map<string, RuleInfo>(base.findings.filter((f) => f.error === undefined).map((f: BenchFinding) => [ruleKey(f), ruleInfoOf(f)]));
+  const { rules, ...rest } = saved;
+  return { ...rest, findings: saved.findings.map((f) => withRuleInfo(f, rules[ruleKey(f)] ?? known.get(ruleKey(f)))) };
+}
 
 export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[]) {
   const fetcher = useFetcher<BenchActionResult>({ key: `bench-${initial.packageId}` });
@@ -55,7 +62,7 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
         setQueue((q) => q.slice(1));
         setErrors((e) => ({ ...e, [sent.key]: ["The server did not answer; the change was not saved. Try again."] }));
       } else if (answer.ok) {
-        setBase(answer.state);
+        setBase((b) => savedToState(answer.state, b));
         remember(answer.state.parts);
         setErrors((e) => {
           const { [sent.key]: _gone, form: _form, ...rest } = e;

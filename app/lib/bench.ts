@@ -162,22 +162,16 @@ const EMPTY_RESULTS: SpecResults = {
 export interface BenchComputation {
   results: SpecResults;
   cautions: Caution[];
-  steps: Step[];
   missing: SpecField[];
   /** inputs calc refused (e.g. a gasket bore under the bore); figures needing them are left out */
   inputErrors: FieldError[];
 }
 
-/**
- * calc's figures for a spec. Parts that do not go together (a gasket bore under the
- * cylinder bore) are not refused here — the fit rules report them — so the inputs calc
- * rejects are set aside and every other figure is still computed.
- */
-export function computeBench(input: SpecInput): BenchComputation {
+function run(input: SpecInput, withSteps: boolean): BenchComputation & { steps: Step[] } {
   const work: Record<string, unknown> = { ...input };
   const inputErrors: FieldError[] = [];
   for (let i = 0; i < 6; i++) {
-    const out = computeSpec(work as SpecInput);
+    const out = computeSpec(work as SpecInput, { steps: withSteps });
     if (out.ok) return { results: out.results, cautions: out.cautions, steps: out.steps, missing: out.missing, inputErrors };
     let removed = false;
     for (const e of out.errors) {
@@ -190,6 +184,78 @@ export function computeBench(input: SpecInput): BenchComputation {
     if (!removed) break;
   }
   return { results: EMPTY_RESULTS, cautions: [], steps: [], missing: [], inputErrors };
+}
+
+/**
+ * calc's figures for a spec. Parts that do not go together (a gasket bore under the
+ * cylinder bore) are not refused here — the fit rules report them — so the inputs calc
+ * rejects are set aside and every other figure is still computed. The worked steps are
+ * not part of it: the browser builds them from the spec (`benchSteps`), so the server
+ * neither builds, stores nor sends them.
+ */
+export function computeBench(input: SpecInput): BenchComputation {
+  const { steps: _none, ...computation } = run(input, false);
+  return computation;
+}
+
+/** The work shown for a spec: calc's steps for the same inputs `computeBench` used. */
+export function benchSteps(input: SpecInput): Step[] {
+  return run(input, true).steps;
+}
+
+/** A computation as stored, without the steps older revisions carried. */
+export function storedComputation(raw: unknown): BenchComputation {
+  const { steps: _old, ...computation } = raw as BenchComputation & { steps?: unknown };
+  return computation;
+}
+
+export type RuleKind = "conflict" | "upgrade" | "caution";
+
+/**
+ * A finding as saved on a revision and as a bench answer names it: which version of
+ * which rule fired, and why it could not be checked if it could not. The rule's name and
+ * message live on that rule version (versions are never changed or deleted), so they are
+ * joined when read instead of being copied into every revision.
+ */
+export interface FindingRef {
+  ruleId: number;
+  ruleVersion: number;
+  kind: RuleKind;
+  error?: string;
+}
+
+/** What the bench shows of one rule version. */
+export interface RuleInfo {
+  name: string;
+  message: string;
+  upgradeCategory: string | null;
+  suggestedPartId: number | null;
+}
+
+/** A finding as the bench shows it; the JSON API adds the values the condition used. */
+export interface BenchFinding extends FindingRef, Omit<RuleInfo, "name"> {
+  ruleName: string;
+  triggeredBy?: Record<string, unknown>;
+}
+
+export const ruleKey = (f: { ruleId: number; ruleVersion: number }) => `${f.ruleId}@${f.ruleVersion}`;
+
+export function toFindingRef(f: FindingRef): FindingRef {
+  return f.error !== undefined ? { ruleId: f.ruleId, ruleVersion: f.ruleVersion, kind: f.kind, error: f.error } : { ruleId: f.ruleId, ruleVersion: f.ruleVersion, kind: f.kind };
+}
+
+export function withRuleInfo(ref: FindingRef, info: RuleInfo | undefined): BenchFinding {
+  return {
+    ...toFindingRef(ref),
+    ruleName: info?.name ?? `Rule ${ref.ruleId}`,
+    message: ref.error !== undefined ? `Rule could not be checked: ${ref.error}` : (info?.message ?? ""),
+    upgradeCategory: info?.upgradeCategory ?? null,
+    suggestedPartId: info?.suggestedPartId ?? null,
+  };
+}
+
+export function ruleInfoOf(f: BenchFinding): RuleInfo {
+  return { name: f.ruleName, message: f.message, upgradeCategory: f.upgradeCategory, suggestedPartId: f.suggestedPartId };
 }
 
 /** One bench action, as posted by the bench (form fields) — parsed by bench-intent.ts. */

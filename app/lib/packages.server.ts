@@ -11,10 +11,16 @@ import {
   emptySpec,
   normaliseSpec,
   resolveFields,
+  ruleKey,
+  storedComputation,
   toCalcInput,
+  toFindingRef,
+  withRuleInfo,
   type BenchComputation,
+  type BenchFinding,
   type BenchPart,
   type BenchSpec,
+  type FindingRef,
   type SpecChange,
 } from "./bench";
 import { buildRuleSnapshot, type PackageSnapshot } from "./rule-snapshot";
@@ -64,8 +70,15 @@ export async function loadParts(db: Db, ids: number[], prices: boolean): Promise
   const unique = [...new Set(ids)];
   if (unique.length === 0) return new Map();
   const rows = (await db.selectFrom("parts").select(PART_COLUMNS).where("id", "in", unique).execute()) as PartRow[];
+  return partMap(rows, prices);
+}
+
+/** Part rows (also as read back from json_agg, with the time as text) keyed by id. */
+export function partMap(rows: readonly PartRow[], prices: boolean): Map<number, BenchPart> {
   return new Map(rows.map((r) => [r.id, toBenchPart(r, prices)]));
 }
+
+export type { PartRow };
 
 /** Active parts, searched by number, maker, name or tag; for the parts shelf. */
 export async function searchParts(db: Db, opts: { q?: string; category?: string; prices: boolean; limit?: number }): Promise<BenchPart[]> {
@@ -110,7 +123,7 @@ export interface Evaluation {
   parts: Map<number, BenchPart>;
 }
 
-function partIds(spec: BenchSpec): number[] {
+export function partIds(spec: BenchSpec): number[] {
   return Object.values(spec.slots)
     .map((s) => s.partId)
     .filter((id): id is number => id !== null);
@@ -153,10 +166,15 @@ export function snapshotFor(spec: BenchSpec, parts: ReadonlyMap<number, BenchPar
   });
 }
 
-/** Recomputes a spec with calc/, builds its snapshot and evaluates the active fit rules. */
-export async function evaluateSpec(db: Db, raw: unknown, prices = true, activeRules?: RuleForEval[]): Promise<Evaluation> {
+/**
+ * Recomputes a spec with calc/, builds its snapshot and evaluates the active fit rules.
+ * `known` may hold parts already read (a superset of the spec's is fine); they are not read again.
+ */
+export async function evaluateSpec(db: Db, raw: unknown, prices = true, activeRules?: RuleForEval[], known?: ReadonlyMap<number, BenchPart>): Promise<Evaluation> {
   const spec = normaliseSpec(raw);
-  const [parts, rules] = await Promise.all([loadParts(db, partIds(spec), prices), activeRules ?? loadActiveRules(db)]);
+  const ids = partIds(spec);
+  const [loaded, rules] = await Promise.all([known ? undefined : loadParts(db, ids, prices), activeRules ?? loadActiveRules(db)]);
+  const parts = loaded ?? new Map(ids.flatMap((id) => (known!.has(id) ? [[id, known!.get(id)!] as const] : [])));
   const computation = computeBench(toCalcInput(spec, resolveFields(spec, parts)));
   const snapshot = snapshotFor(spec, parts, computation);
   const findings = await evaluateRules(snapshot, rules);
@@ -240,30 +258,66 @@ export interface BenchState {
   revision: number;
   spec: BenchSpec;
   computation: BenchComputation;
-  findings: Finding[];
+  findings: BenchFinding[];
   parts: BenchPart[];
   savedBy: string | null;
   savedAt: string;
   change: string;
 }
 
-export async function getBenchState(db: Db, id: number, prices: boolean): Promise<BenchState | null> {
+/**
+ * A revision's stored findings with each rule version's name and message joined in.
+ * With the revision's rule snapshot, each finding also gets the values its condition
+ * used, by evaluating that (unchanging) rule version on the snapshot again. Revisions
+ * saved before findings were stored by reference already carry everything.
+ */
+export async function readFindings(db: Db, stored: unknown, snapshot?: PackageSnapshot): Promise<BenchFinding[]> {
+  const list = Array.isArray(stored) ? (stored as (FindingRef | Finding)[]) : [];
+  const refs = list.filter((f) => !("ruleName" in f));
+  if (refs.length === 0) return list as BenchFinding[];
+  const versions = await db
+    .selectFrom("fit_rule_versions")
+    .select(["rule_id", "version", "name", "kind", "condition", "message", "upgrade_category", "suggested_part_id"])
+    .where("rule_id", "in", [...new Set(refs.map((f) => f.ruleId))])
+    .execute();
+  const wanted = new Set(refs.map(ruleKey));
+  const rules: RuleForEval[] = versions
+    .filter((v) => wanted.has(`${v.rule_id}@${v.version}`))
+    .map((v) => ({ id: v.rule_id, version: v.version, name: v.name, kind: v.kind, condition: v.condition, message: v.message, upgrade_category: v.upgrade_category, suggested_part_id: v.suggested_part_id }));
+  const byKey = new Map(rules.map((r) => [`${r.id}@${r.version}`, r]));
+  const again = snapshot ? new Map(evaluateRules(snapshot, rules).map((f) => [ruleKey(f), f.triggeredBy])) : null;
+  return list.map((f) => {
+    if ("ruleName" in f) return f;
+    const r = byKey.get(ruleKey(f));
+    const out = withRuleInfo(f, r && { name: r.name, message: r.message, upgradeCategory: r.upgrade_category, suggestedPartId: r.suggested_part_id });
+    return again ? { ...out, triggeredBy: again.get(ruleKey(f)) ?? {} } : out;
+  });
+}
+
+/** Findings as a revision stores them: by rule version (see FindingRef). */
+export function storedFindings(findings: readonly FindingRef[]): string {
+  return JSON.stringify(findings.map(toFindingRef));
+}
+
+export async function getBenchState(db: Db, id: number, prices: boolean, opts: { triggeredBy?: boolean } = {}): Promise<BenchState | null> {
   const row = await db
     .selectFrom("packages as p")
     .innerJoin("package_revisions as r", (j) => j.onRef("r.package_id", "=", "p.id").onRef("r.revision", "=", "p.current_revision"))
     .leftJoin("users as u", "u.id", "r.saved_by")
     .select(["p.id", "p.current_revision", "r.spec", "r.results", "r.findings", "r.change", "r.saved_at", "u.name as saved_by_name"])
+    .$if(opts.triggeredBy === true, (q) => q.select("r.rule_snapshot"))
     .where("p.id", "=", id)
     .executeTakeFirst();
   if (!row) return null;
   const spec = normaliseSpec(row.spec);
-  const parts = await loadParts(db, partIds(spec), prices);
+  const snapshot = "rule_snapshot" in row ? (row.rule_snapshot as PackageSnapshot) : undefined;
+  const [parts, findings] = await Promise.all([loadParts(db, partIds(spec), prices), readFindings(db, row.findings, snapshot)]);
   return {
     packageId: row.id,
     revision: row.current_revision,
     spec,
-    computation: row.results as BenchComputation,
-    findings: row.findings as Finding[],
+    computation: storedComputation(row.results),
+    findings,
     parts: [...parts.values()],
     savedBy: row.saved_by_name,
     savedAt: new Date(row.saved_at).toISOString(),
@@ -302,7 +356,7 @@ export async function createPackage(db: Db, input: NewPackageInput, userId: numb
         spec: JSON.stringify(ev.spec),
         results: JSON.stringify(ev.computation),
         rule_snapshot: JSON.stringify(ev.snapshot),
-        findings: JSON.stringify(ev.findings),
+        findings: storedFindings(ev.findings),
         created_by: userId,
         ...syncColumns(ev.spec),
       })
@@ -316,7 +370,7 @@ export async function createPackage(db: Db, input: NewPackageInput, userId: numb
         spec: JSON.stringify(ev.spec),
         results: JSON.stringify(ev.computation),
         rule_snapshot: JSON.stringify(ev.snapshot),
-        findings: JSON.stringify(ev.findings),
+        findings: storedFindings(ev.findings),
         change: input.change ?? "Package started",
         saved_by: userId,
       })
@@ -368,7 +422,7 @@ export async function saveRevision(
           spec: JSON.stringify(ev.spec),
           results: JSON.stringify(ev.computation),
           rule_snapshot: JSON.stringify(ev.snapshot),
-          findings: JSON.stringify(ev.findings),
+          findings: storedFindings(ev.findings),
           updated_at: sql`now()`,
           ...syncColumns(ev.spec),
         })
@@ -439,7 +493,7 @@ export async function listRevisions(db: Db, packageId: number): Promise<Revision
     .orderBy("r.revision", "desc")
     .execute();
   return rows.map((r) => {
-    const f = (r.findings as Finding[]) ?? [];
+    const f = (r.findings as FindingRef[]) ?? [];
     return {
       revision: r.revision,
       change: r.change,
@@ -459,7 +513,7 @@ export async function getRevision(db: Db, packageId: number, revision: number) {
     .where("revision", "=", revision)
     .executeTakeFirst();
   if (!r) return null;
-  return { revision: r.revision, spec: normaliseSpec(r.spec), computation: r.results as BenchComputation, findings: r.findings as Finding[], change: r.change };
+  return { revision: r.revision, spec: normaliseSpec(r.spec), computation: storedComputation(r.results), findings: await readFindings(db, r.findings), change: r.change };
 }
 
 export const RESULT_ROWS: { key: keyof BenchComputation["results"]; label: string; unit: string; digits: number }[] = [
@@ -486,7 +540,7 @@ export async function compareRevisions(db: Db, packageId: number, a: number, b: 
     before: fmt(ra.computation.results[row.key], row.digits),
     after: fmt(rb.computation.results[row.key], row.digits),
   })).filter((r) => r.before !== r.after);
-  const names = (f: Finding[]) => new Set(f.map((x) => x.ruleName));
+  const names = (f: BenchFinding[]) => new Set(f.map((x) => x.ruleName));
   const fa = names(ra.findings);
   const fb = names(rb.findings);
   return {

@@ -10,7 +10,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const db = getDb();
   const id = Number(params.id);
   const header = Number.isInteger(id) && id > 0 ? await getPackageHeader(db, id) : null;
-  const state = header ? await getBenchState(db, id, can(user.role, "prices:read")) : null;
+  const state = header ? await getBenchState(db, id, can(user.role, "prices:read"), { triggeredBy: true }) : null;
   if (!header || !state) return Response.json({ error: "No package with this number." }, { status: 404 });
   const { computation, findings, spec, parts, revision, savedAt, savedBy } = state;
   return Response.json(

@@ -5,7 +5,7 @@ import type { Route } from "./+types/packages.$id.bench";
 import { requireRole } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { can } from "~/lib/permissions";
-import { EDITABLE_STATUSES, resolveFields, type BenchPart } from "~/lib/bench";
+import { EDITABLE_STATUSES, resolveFields, toCalcInput, type BenchPart } from "~/lib/bench";
 import { useBenchQueue } from "~/lib/bench-queue";
 import { getBenchState, getPackageHeader, slotOptions } from "~/lib/packages.server";
 import { getUnits, setUnits } from "~/lib/units-pref.server";
@@ -197,6 +197,7 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
           <div className="order-2 lg:order-none">
           <ResultsPanel
             computation={bench.computation}
+            input={toCalcInput(bench.spec, fields)}
             findings={bench.base.findings}
             findingsStale={bench.pending}
             units={units}

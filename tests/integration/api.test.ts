@@ -6,6 +6,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { computeSpec } from "../../calc";
 import { getDb } from "~/lib/db.server";
 import { ensureBuiltInCategories } from "~/lib/catalog.server";
+import { createRule } from "~/lib/fit-rules.server";
 import { createPackage } from "~/lib/packages.server";
 import { action as benchAction } from "~/routes/packages.$id.bench";
 import { action as calcAction, loader as calcLoader } from "~/routes/api.calc";
@@ -18,6 +19,7 @@ const tag = randomBytes(4).toString("hex");
 const users = {} as Record<"owner" | "builder" | "service_writer" | "apprentice", TestUser>;
 const part: Record<string, number> = {};
 let packageId = 0;
+let bikeId = 0;
 
 beforeAll(async () => {
   await ensureBuiltInCategories(db);
@@ -35,6 +37,7 @@ beforeAll(async () => {
   await add("old", "cams", { intakeClosesAbdcDeg: 40 }, [`api-cam-${tag}`], true);
   const c = await db.insertInto("customers").values({ name: `Api ${tag}`, notes: "" }).returning("id").executeTakeFirstOrThrow();
   const bike = await db.insertInto("bikes").values({ customer_id: c.id, year: 2022, model: `Api twin ${tag}`, notes: "" }).returning("id").executeTakeFirstOrThrow();
+  bikeId = bike.id;
   packageId = await createPackage(db, { name: `Api package ${tag}`, bikeId: bike.id, isTemplate: false, builderId: users.builder.id }, users.builder.id);
   const request = await requestAs(users.builder, `/packages/${packageId}/bench`, { method: "POST", body: new URLSearchParams({ intent: "set-part", slot: "cylinder", partId: String(part.cyl), expectedRevision: "1" }) });
   const saved = (await benchAction({ request, params: { id: String(packageId) }, context: {} } as never)) as { data: { ok: boolean } };
@@ -109,6 +112,24 @@ describe("GET /api/packages/:id", () => {
     expect(out.body.results.boreStrokeRatio).toBeNull();
     expect(out.body.missing).toContain("strokeMm");
     expect(Array.isArray(out.body.findings)).toBe(true);
+  });
+
+  it("answers each finding with its rule's name and message and the values its condition used", async () => {
+    const rule = await createRule(db, { name: `Api big bore ${tag}`, kind: "caution", condition: `bore_mm > 100 and has("api-bore-${tag}")`, message: "Check the case spigots.", upgrade_category: null, suggested_part_id: null, active: true }, null);
+    if (!rule.ok) throw new Error("rule fixture did not save");
+    const id = await createPackage(db, { name: `Api findings ${tag}`, bikeId, isTemplate: false, builderId: users.builder.id, spec: { slots: { cylinder: { partId: part.cyl, measured: {} } } } }, users.builder.id);
+    const out = await get("owner", id);
+    expect(out.status).toBe(200);
+    expect(out.body.findings.find((f: any) => f.ruleId === rule.rule.id)).toEqual({
+      ruleId: rule.rule.id,
+      ruleVersion: 1,
+      kind: "caution",
+      ruleName: `Api big bore ${tag}`,
+      message: "Check the case spigots.",
+      upgradeCategory: null,
+      suggestedPartId: null,
+      triggeredBy: { bore_mm: 101.6, [`has("api-bore-${tag}")`]: true },
+    });
   });
 
   it("answers 404 for a package that does not exist or a malformed number", async () => {

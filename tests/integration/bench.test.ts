@@ -122,15 +122,38 @@ describe("bench actions", () => {
       { intent: "set-number", field: "powerHp", value: "150", unit: "hp" },
       { intent: "set-basis", value: "target" },
     ];
+    const answers: any[] = [];
     for (const f of steps) {
       const r = await act(builder, id, { ...f, expectedRevision: String(rev) });
       expect(r.status).toBe(200);
       rev = r.body.state.revision;
+      answers.push(r.body.state);
     }
+    // without a power figure the rule could not be checked; the answer that made it fire
+    // brings its name and message, the next one only names it
+    const key = `${upgradeRuleId}@1`;
+    expect(answers[0].findings).toContainEqual({ ruleId: upgradeRuleId, ruleVersion: 1, kind: "upgrade", error: expect.stringMatching(/power_hp/) });
+    expect(answers[1].findings).toContainEqual({ ruleId: upgradeRuleId, ruleVersion: 1, kind: "upgrade" });
+    expect(answers[1].rules[key]).toEqual({ name: `Power ${tag}`, message: "Upgrade the adjusters.", upgradeCategory: "axle_adjusters", suggestedPartId: part.axlock });
+    expect(answers[2].findings).toContainEqual({ ruleId: upgradeRuleId, ruleVersion: 1, kind: "upgrade" });
+    expect(answers[2].rules).not.toHaveProperty(key);
+    expect(answers[2].computation).not.toHaveProperty("steps");
+
+    // saved by rule version on both rows; the bench reads the name and message from that version
     const row = await current(id);
-    const up = (row.findings as any[]).find((f) => f.ruleId === upgradeRuleId);
-    expect(up).toMatchObject({ kind: "upgrade", upgradeCategory: "axle_adjusters", suggestedPartId: part.axlock });
+    const saved = await db.selectFrom("package_revisions").select(["findings", "results"]).where("package_id", "=", id).where("revision", "=", rev).executeTakeFirstOrThrow();
+    expect((row.findings as any[]).find((f) => f.ruleId === upgradeRuleId)).toEqual({ ruleId: upgradeRuleId, ruleVersion: 1, kind: "upgrade" });
+    expect(saved.findings).toEqual(row.findings);
+    expect(saved.results).not.toHaveProperty("steps");
     expect((row.rule_snapshot as any).power_basis).toBe("target");
+    const view = (await benchLoader({ request: await requestAs(builder, `/packages/${id}/bench`), params: { id: String(id) }, context: {} } as never)) as any;
+    expect(view.state.findings.find((f: any) => f.ruleId === upgradeRuleId)).toMatchObject({
+      kind: "upgrade",
+      ruleName: `Power ${tag}`,
+      message: "Upgrade the adjusters.",
+      upgradeCategory: "axle_adjusters",
+      suggestedPartId: part.axlock,
+    });
 
     const fixed = await act(builder, id, { intent: "set-part", slot: "axle_adjusters", partId: String(part.axlock), expectedRevision: String(rev) });
     expect(fixed.body.state.findings.some((f: any) => f.ruleId === upgradeRuleId)).toBe(false);

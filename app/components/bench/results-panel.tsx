@@ -1,11 +1,10 @@
 // The bench's figures, in the user's units, with calc's cautions, the fit rules'
 // findings (conflicts, then upgrades with the suggested part one click away, then
 // cautions), the work shown, and the compression-target solver.
-import { useState } from "react";
-import { DCR_NOTE, solveChamberCcForRatio, solveDomeCcForRatio, solveGasketThicknessForRatio, type SpecResults } from "../../../calc";
-import { FIELD_LABELS, type BenchComputation, type BenchPart, type Resolved } from "~/lib/bench";
+import { useMemo, useState } from "react";
+import { DCR_NOTE, solveChamberCcForRatio, solveDomeCcForRatio, solveGasketThicknessForRatio, type SpecInput, type SpecResults } from "../../../calc";
+import { benchSteps, FIELD_LABELS, type BenchComputation, type BenchFinding, type BenchPart, type Resolved } from "~/lib/bench";
 import { show, type Quantity, type Units } from "~/lib/bench-units";
-import type { Finding } from "~/lib/fit-rules.server";
 import { SLOTS } from "~/lib/slots";
 
 const ROWS: { key: keyof SpecResults; label: string; q: Quantity | "ci" | "cc" | "plain" }[] = [
@@ -29,7 +28,9 @@ function cell(v: number | null, q: (typeof ROWS)[number]["q"], units: Units) {
 
 export function ResultsPanel(props: {
   computation: BenchComputation;
-  findings: Finding[];
+  /** calc's input for the figures shown, from which the work shown is built here */
+  input: SpecInput;
+  findings: BenchFinding[];
   findingsStale: boolean;
   units: Units;
   onUnits: (u: Units) => void;
@@ -131,10 +132,24 @@ export function ResultsPanel(props: {
 
       <Solver fields={props.fields} deckClearanceMm={props.deckClearanceMm} canEdit={props.canEdit} onUse={props.onUseSolved} />
 
-      <details className="rounded border border-steel-200 bg-white p-2 text-sm">
+      <WorkShown input={props.input} />
+      <p className="text-xs text-steel-700" data-testid="bench-disclaimer">
+        Figures are for planning. Torque values and limits come from the parts maker's instructions; compression against
+        fuel is the tuner's call; brakes, axles and suspension are checked by a qualified technician.
+      </p>
+    </section>
+  );
+}
+
+function WorkShown({ input }: { input: SpecInput }) {
+  const [open, setOpen] = useState(false);
+  // built only while open: the server sends figures, not their worked steps
+  const steps = useMemo(() => (open ? benchSteps(input) : []), [open, input]);
+  return (
+    <details className="rounded border border-steel-200 bg-white p-2 text-sm" onToggle={(e) => setOpen(e.currentTarget.open)}>
         <summary className="cursor-pointer font-semibold text-ink">Show the work</summary>
-        <ol className="mt-2 flex flex-col gap-2">
-          {c.steps.map((s) => (
+        <ol className="mt-2 flex flex-col gap-2" data-testid="work-steps">
+          {steps.map((s) => (
             <li key={s.id}>
               <p className="font-medium">{s.label}</p>
               <p className="num font-mono text-xs text-steel-700">{s.formula}</p>
@@ -147,15 +162,10 @@ export function ResultsPanel(props: {
         </ol>
         <p className="mt-2 text-xs text-steel-700">{DCR_NOTE}</p>
       </details>
-      <p className="text-xs text-steel-700" data-testid="bench-disclaimer">
-        Figures are for planning. Torque values and limits come from the parts maker's instructions; compression against
-        fuel is the tuner's call; brakes, axles and suspension are checked by a qualified technician.
-      </p>
-    </section>
   );
 }
 
-function FindingItem({ f, parts, canEdit, onUse }: { f: Finding; parts: ReadonlyMap<number, BenchPart>; canEdit: boolean; onUse: (slot: string, id: number) => void }) {
+function FindingItem({ f, parts, canEdit, onUse }: { f: BenchFinding; parts: ReadonlyMap<number, BenchPart>; canEdit: boolean; onUse: (slot: string, id: number) => void }) {
   const style = { conflict: "border-red text-red-text", upgrade: "border-amber text-amber-text", caution: "border-steel-500 text-steel-700" }[f.kind];
   const slot = f.upgradeCategory ? SLOTS.find((s) => s.category === f.upgradeCategory) : undefined;
   const suggested = f.suggestedPartId != null ? parts.get(f.suggestedPartId) : undefined;
