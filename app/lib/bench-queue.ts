@@ -46,18 +46,22 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
     });
 
   // One effect, so an answer is taken in before the next action is sent: the next one
-  // must name the revision the answer brought.
+  // must name the revision the answer brought. The router applies fetcher states in a
+  // transition, and a slow render can be overtaken by a quick answer, so the busy state
+  // may never be seen: an answer is recognised by its new data, and "no answer" only
+  // after the fetcher was seen busy and went idle without any.
   const sawBusy = useRef(false);
+  const dataWhenSent = useRef<BenchActionResult | undefined>(undefined);
   useEffect(() => {
     if (inFlight.current && fetcher.state !== "idle") {
       sawBusy.current = true;
       return;
     }
-    if (inFlight.current && sawBusy.current) {
+    if (inFlight.current && (fetcher.data !== dataWhenSent.current || sawBusy.current)) {
       const sent = inFlight.current;
       inFlight.current = null;
       sawBusy.current = false;
-      const answer = fetcher.data;
+      const answer = fetcher.data !== dataWhenSent.current ? fetcher.data : undefined;
       if (!answer) {
         setQueue((q) => q.slice(1));
         setErrors((e) => ({ ...e, [sent.key]: ["The server did not answer; the change was not saved. Try again."] }));
@@ -84,6 +88,7 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
     const next = queue[0]!;
     inFlight.current = next;
     sawBusy.current = false;
+    dataWhenSent.current = fetcher.data;
     fetcher.submit({ ...next.fields, expectedRevision: String(base.revision) }, { method: "post" });
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [fetcher.state, fetcher.data, queue, conflict, base.revision]);

@@ -17,6 +17,7 @@ import { ResultsPanel } from "~/components/bench/results-panel";
 import { SlotCard, type SlotActions } from "~/components/bench/slot-card";
 import { PackageNumbers } from "~/components/bench/package-numbers";
 import { StaleNotice } from "~/components/bench/stale-notice";
+import { BenchSummary } from "~/components/bench/bench-summary";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireRole(request, "owner", "builder", "service_writer");
@@ -49,24 +50,32 @@ export function shouldRevalidate({ formMethod, defaultShouldRevalidate }: Should
   return formMethod === "POST" ? false : defaultShouldRevalidate;
 }
 
-/** Arrow keys jump a lifted card between the slots it fits, in reading order. */
+/**
+ * Arrow keys jump a lifted card between the slots it fits, in reading order. dnd-kit
+ * measures the slots in an effect after the lift; an arrow pressed before that (a quick
+ * keyboard user, a slow device) measures them here, so it is never silently ignored.
+ */
 const slotJumps: KeyboardCoordinateGetter = (event, { currentCoordinates, context }) => {
   const arrows = ["ArrowDown", "ArrowRight", "ArrowUp", "ArrowLeft"];
   if (!arrows.includes(event.code)) return undefined;
   event.preventDefault();
   const category = (context.active?.data.current?.part as BenchPart | undefined)?.category;
   const targets = [...context.droppableContainers.values()]
-    .filter((c) => !c.disabled && c.rect.current && (!category || c.data.current?.category === category))
-    .map((c) => c.rect.current!)
-    .sort((a, b) => a.top - b.top || a.left - b.left);
-  if (targets.length === 0 || !context.collisionRect) return currentCoordinates;
+    .filter((c) => !c.disabled && (!category || c.data.current?.category === category))
+    .flatMap((c) => {
+      const rect = c.rect.current ?? c.node.current?.getBoundingClientRect() ?? null;
+      return rect ? [{ id: c.id, rect }] : [];
+    })
+    .sort((a, b) => a.rect.top - b.rect.top || a.rect.left - b.rect.left);
+  const lifted = context.collisionRect ?? context.activeNode?.getBoundingClientRect() ?? null;
+  if (targets.length === 0 || !lifted) return currentCoordinates;
   const overId = context.over?.id;
-  const current = overId ? targets.findIndex((r) => r === context.droppableContainers.get(overId)?.rect.current) : -1;
+  const current = overId ? targets.findIndex((t) => t.id === overId) : -1;
   const forward = event.code === "ArrowDown" || event.code === "ArrowRight";
-  const next = targets[(current + (forward ? 1 : -1) + targets.length) % targets.length]!;
+  const next = targets[(current + (forward ? 1 : -1) + targets.length) % targets.length]!.rect;
   return {
-    x: next.left + next.width / 2 - context.collisionRect.width / 2,
-    y: next.top + next.height / 2 - context.collisionRect.height / 2,
+    x: next.left + next.width / 2 - lifted.width / 2,
+    y: next.top + next.height / 2 - lifted.height / 2,
   };
 };
 
@@ -175,26 +184,31 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
         onDragCancel={() => setDragging(null)}
         onDragEnd={onDragEnd}
       >
-        {/* on a phone: slots, then results, then the shelf (every slot also has its pick-list) */}
+        <BenchSummary computation={bench.computation} findings={bench.base.findings} units={units} pending={bench.pending} />
+        {/* on a phone: engine slots and numbers, then the results and findings, then the chassis,
+            then the shelf (every slot also has its pick-list); the middle column's parts join
+            the one-column grid there (display: contents) so the results can sit between them */}
         <div className="grid grid-cols-1 gap-4 lg:grid-cols-[280px_minmax(0,1fr)_360px]">
-          <div className="order-3 lg:order-none">
+          <div className="order-5 lg:order-none">
             <PartsShelf onParts={bench.remember} canEdit={canEdit} />
           </div>
-          <div className="order-1 flex flex-col gap-4 lg:order-none">
-            <section aria-label="Engine slots" className="grid grid-cols-1 gap-2 rounded border border-steel-200 bg-steel-100 p-2 sm:grid-cols-[minmax(0,1fr)_auto_minmax(0,1fr)]">
+          <div className="contents lg:flex lg:flex-col lg:gap-4">
+            <section aria-label="Engine slots" className="order-1 grid grid-cols-1 gap-2 rounded border border-steel-200 bg-steel-100 p-2 sm:grid-cols-[minmax(0,1fr)_auto_minmax(0,1fr)] lg:order-none">
               <div className="flex flex-col gap-2">{["head", "gasket", "cylinder", "rod"].map(slotCard)}</div>
               <div className="order-first flex justify-center sm:order-none">
                 <EngineSection fields={fields} deckClearanceMm={bench.spec.deckClearanceMm} units={units} />
               </div>
               <div className="flex flex-col gap-2">{["cam", "springs", "piston", "flywheel"].map(slotCard)}</div>
             </section>
-            <PackageNumbers spec={bench.spec} units={units} errors={bench.errors} canEdit={canEdit} submit={bench.submit} />
-            <section aria-label="Chassis slots" className="rounded border border-steel-200 bg-white p-2">
+            <div className="order-2 lg:order-none">
+              <PackageNumbers spec={bench.spec} units={units} errors={bench.errors} canEdit={canEdit} submit={bench.submit} />
+            </div>
+            <section aria-label="Chassis slots" className="order-4 rounded border border-steel-200 bg-white p-2 lg:order-none">
               <h2 className="mb-2 text-sm font-semibold uppercase tracking-wider text-steel-700">Chassis</h2>
               <div className="grid grid-cols-1 gap-2 sm:grid-cols-2 xl:grid-cols-4">{SLOTS.filter((s) => s.group === "chassis").map((s) => slotCard(s.key))}</div>
             </section>
           </div>
-          <div className="order-2 lg:order-none">
+          <div className="order-3 lg:order-none">
           <ResultsPanel
             computation={bench.computation}
             input={toCalcInput(bench.spec, fields)}

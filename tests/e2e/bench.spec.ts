@@ -2,6 +2,7 @@
 // figures and a finding, reload to the saved state, and a stale save from a second tab.
 import { expect, test, type Page } from "@playwright/test";
 import { createDb } from "../../db/connect";
+import { SLOT_BY_KEY } from "../../app/lib/slots";
 import { e2eDatabaseUrl } from "../support/db-url";
 import { loginAs } from "./support/login";
 
@@ -19,6 +20,14 @@ async function freshPackage(name: string): Promise<number> {
   }
 }
 
+/** What the bench announces (and a screen reader says) while a card is lifted. */
+const announced = (page: Page) => page.locator("[id^=DndLiveRegion]").first();
+/** "… is over the cam slot." — the card is over a slot it fits (not "…, which it does not fit."). */
+const overSlot = (slot: string) => `is over the ${SLOT_BY_KEY[slot]!.label.toLowerCase()} slot.`;
+
+// The bench measures its slots and starts listening for keys just after a card is lifted,
+// so every drop waits until the bench says the card is over the slot: a drop before that
+// lands nowhere, as it would for a user who let go too soon.
 async function drag(page: Page, partNumber: string, slot: string) {
   const card = page.getByTestId(`part-${partNumber}`);
   const target = page.getByTestId(`slot-${slot}`);
@@ -29,6 +38,7 @@ async function drag(page: Page, partNumber: string, slot: string) {
   await page.mouse.move(from.x + from.width / 2 + 10, from.y + from.height / 2 + 10, { steps: 3 });
   const to = (await target.boundingBox())!;
   await page.mouse.move(to.x + to.width / 2, to.y + to.height / 2, { steps: 8 });
+  await expect(announced(page)).toContainText(overSlot(slot));
   await page.mouse.up();
   await expect(page.getByTestId(`slot-${slot}-part`)).toContainText(partNumber);
 }
@@ -58,10 +68,16 @@ test("a builder drags parts onto the slots, sees figures and a finding, and the 
   await search(page, "TW-CAM-585");
   await page.getByTestId("part-TW-CAM-585").focus();
   await page.keyboard.press("Space");
-  await page.keyboard.press("ArrowDown");
+  await expect(announced(page)).toContainText("Picked up");
+  // an arrow pressed in the instant before the lifted card listens is not heard: like a
+  // keyboard user, press it again until the bench says where the card is
+  await expect(async () => {
+    await page.keyboard.press("ArrowDown");
+    await expect(announced(page)).toContainText(overSlot("cam"), { timeout: 1000 });
+  }).toPass();
   await page.keyboard.press("Space");
   await expect(page.getByTestId("slot-cam-part")).toContainText("TW-CAM-585");
-  await expect(page.locator("#DndLiveRegion-0, [id^=DndLiveRegion]").first()).toContainText("placed in the cam slot");
+  await expect(announced(page)).toContainText("placed in the cam slot");
 
   await expect(page.getByTestId("result-displacementCi")).toContainText("113.");
   await expect(page.getByTestId("finding-conflict")).toContainText("Head gasket bore smaller than the cylinder bore");

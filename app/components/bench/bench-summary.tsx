@@ -1,0 +1,41 @@
+// On a phone the bench is one long column: this strip of the key figures stays at the top
+// of the screen while a builder works down the slots, and leads to the full results.
+import type { BenchComputation, BenchFinding } from "~/lib/bench";
+import { show, type Units } from "~/lib/bench-units";
+
+export function BenchSummary({ computation, findings, units, pending }: { computation: BenchComputation; findings: BenchFinding[]; units: Units; pending: boolean }) {
+  const r = computation.results;
+  const disp = units === "inch" ? { text: r.displacementCi === null ? "—" : r.displacementCi.toFixed(1), unit: "ci" } : { text: r.displacementCc === null ? "—" : r.displacementCc.toFixed(0), unit: "cc" };
+  const figures = [
+    { label: "Displ.", ...disp },
+    { label: "Static", ...show(r.staticCr, "ratio", units) },
+    { label: "Dynamic", ...show(r.dynamicCr, "ratio", units) },
+    { label: "Quench", ...show(r.quenchMm, "length", units) },
+  ];
+  const conflicts = findings.filter((f) => f.kind === "conflict" && !f.error).length;
+  const upgrades = findings.filter((f) => f.kind === "upgrade" && !f.error).length;
+  return (
+    <a
+      href="#results-h"
+      aria-label="Key figures; go to the results"
+      data-testid="bench-summary"
+      className="sticky top-0 z-20 -mx-3 mb-3 flex items-center gap-3 overflow-x-auto border-b border-graphite bg-ink px-3 py-1.5 text-white shadow lg:hidden"
+    >
+      {figures.map((f) => (
+        <span key={f.label} className="flex shrink-0 flex-col leading-tight">
+          <span className="text-[11px] text-steel-300">{f.label}</span>
+          <span className="num text-sm font-semibold">
+            {f.text}
+            <span className="ml-0.5 text-[11px] font-normal text-steel-300">{f.unit}</span>
+          </span>
+        </span>
+      ))}
+      <span className="ml-auto flex shrink-0 flex-col text-right leading-tight">
+        <span className="text-[11px] text-steel-300">{pending ? "checking…" : "Findings"}</span>
+        <span className={`text-sm font-semibold ${conflicts ? "text-[#ff9d97]" : upgrades ? "text-[#ffd27a]" : "text-white"}`}>
+          {conflicts ? `${conflicts} conflict${conflicts > 1 ? "s" : ""}` : upgrades ? `${upgrades} upgrade${upgrades > 1 ? "s" : ""}` : "none tripped"}
+        </span>
+      </span>
+    </a>
+  );
+}
