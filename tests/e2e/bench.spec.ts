@@ -92,6 +92,17 @@ test("a builder drags parts onto the slots, sees figures and a finding, and the 
 
   await page.setViewportSize({ width: 390, height: 844 });
   await page.screenshot({ path: `${SHOTS}/bench-390.png`, fullPage: true });
+  // on a phone the figures come right after the engine and its numbers, before the chassis;
+  // the strip of key figures stays in view while the builder works down the slots
+  const top = async (testId: string) => (await page.getByTestId(testId).boundingBox())!.y;
+  const results = (await page.getByRole("heading", { name: "Results" }).boundingBox())!.y;
+  expect(results).toBeGreaterThan(await top("slot-flywheel"));
+  expect(results).toBeLessThan(await top("slot-axle_adjusters"));
+  await page.getByTestId("slot-piston").scrollIntoViewIfNeeded();
+  await expect(page.getByTestId("bench-summary")).toBeInViewport();
+  await expect(page.getByTestId("bench-summary")).toContainText("113.");
+  await expect(page.getByTestId("bench-summary")).toContainText("1 conflict");
+  await page.screenshot({ path: `${SHOTS}/bench-390-slots.png` });
 });
 
 test("two tabs on one package: the stale save is refused with what changed, and can be applied on top", async ({ browser }) => {
