@@ -49,6 +49,8 @@ async function search(page: Page, q: string) {
 }
 
 test("a builder drags parts onto the slots, sees figures and a finding, and the save survives a reload", async ({ page }) => {
+  // a long journey (six drops, a reload, two widths: about 90 browser steps) on a shared machine
+  test.setTimeout(60_000);
   const id = await freshPackage("E2E drag test");
   await loginAs(page, "builder");
   await page.setViewportSize({ width: 1440, height: 1000 });
