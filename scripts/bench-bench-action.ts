@@ -216,12 +216,15 @@ try {
     rows.push({ what: "bench action", c, f: await run(c, SECONDS, "action") });
   }
   const revsAfter = Number((await db.selectFrom("package_revisions").select((eb) => eb.fn.countAll<string>().as("n")).executeTakeFirstOrThrow()).n);
+  // what one request's rules found: the last revision of the package edited most
   const sample = await db
     .selectFrom("package_revisions")
     .select(["findings", "change"])
-    .where("package_id", "=", packages[0]!)
+    .where("package_id", "in", packages)
     .orderBy("revision", "desc")
     .executeTakeFirstOrThrow();
+  const fired = sample.findings as { kind: string; error?: string }[];
+  const byKind = ["conflict", "upgrade", "caution"].map((k) => `${fired.filter((f) => f.kind === k && !f.error).length} ${k}`).join(", ");
 
   const ms = (v: number) => `${v.toFixed(1)} ms`.padStart(9);
   console.log(`bench action under load: ${SECONDS} s per run, loopback, autocannon in this process, the server in its own (NODE_ENV=production), ${ruleCount} active fit rules`);
@@ -236,7 +239,7 @@ try {
   }
   const at10 = rows.find((r) => r.what === "bench action" && r.c === 10)!.f;
   console.log(`  target: action p95 < 50 ms at 10 connections → ${at10.p95.toFixed(1)} ms (${at10.p95 < 50 ? "met" : "missed"})`);
-  console.log(`  revisions saved during the runs (incl. warm-up): ${revsAfter - revsBefore}; last one: "${sample.change}", ${(sample.findings as unknown[]).length} findings`);
+  console.log(`  revisions saved during the runs (incl. warm-up): ${revsAfter - revsBefore}; rules that fire per request: ${fired.length} of ${ruleCount} findings (${byKind}, ${fired.filter((f) => f.error).length} not checkable), last change "${sample.change}"`);
 
   // ---- the bench route's browser JavaScript, as the build emits it ----
   const build = (await import(pathToFileURL(serverEntry).href)) as { assets: { entry: { module: string; imports: string[] }; routes: Record<string, { module: string; imports?: string[] }> } };
