@@ -34,7 +34,9 @@ import type { PackageStatus } from "../../db/schema/packages";
 export type SavedState = Omit<BenchState, "findings"> & { findings: FindingRef[]; rules: Record<string, RuleInfo> };
 
 export type BenchActionResult =
-  | { ok: true; state: SavedState }
+  // one JSON string (SavedState): React Router's stream encoding visits every value of an
+  // answer, and a saved bench state has hundreds; JSON.stringify is native and one string is one value
+  | { ok: true; saved: string }
   | { ok: false; errors: IntentErrors }
   | { ok: false; stale: StaleSave; current: BenchState };
 
@@ -144,7 +146,7 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
       savedAt: new Date().toISOString(),
       change,
     };
-    return data<BenchActionResult>({ ok: true, state });
+    return data<BenchActionResult>({ ok: true, saved: JSON.stringify(state) });
   }
   if ("missing" in outcome) throw data("This package does not exist.", { status: 404 });
   return staleAnswer(db, packageId, expectedRevision, outcome);

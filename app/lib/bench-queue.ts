@@ -66,8 +66,9 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
         setQueue((q) => q.slice(1));
         setErrors((e) => ({ ...e, [sent.key]: ["The server did not answer; the change was not saved. Try again."] }));
       } else if (answer.ok) {
-        setBase((b) => savedToState(answer.state, b));
-        remember(answer.state.parts);
+        const saved = JSON.parse(answer.saved) as SavedState;
+        setBase((b) => savedToState(saved, b));
+        remember(saved.parts);
         setErrors((e) => {
           const { [sent.key]: _gone, form: _form, ...rest } = e;
           return rest;

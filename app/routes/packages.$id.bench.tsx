@@ -6,6 +6,7 @@ import { requireRole } from "~/lib/auth.server";
 import { getDb } from "~/lib/db.server";
 import { can } from "~/lib/permissions";
 import { EDITABLE_STATUSES, resolveFields, toCalcInput, type BenchPart } from "~/lib/bench";
+import { runBenchAction } from "~/lib/bench-action.server";
 import { useBenchQueue } from "~/lib/bench-queue";
 import { getBenchState, getPackageHeader, slotOptions } from "~/lib/packages.server";
 import { getUnits, setUnits } from "~/lib/units-pref.server";
@@ -41,7 +42,6 @@ export async function action({ request, params }: Route.ActionArgs) {
     return data({ ok: true as const, units });
   }
   const user = await requireRole(request, "owner", "builder");
-  const { runBenchAction } = await import("~/lib/bench-action.server");
   return runBenchAction(getDb(), user, Number(params.id), form);
 }
 

@@ -81,7 +81,7 @@ async function bench(user: TestUser, id: number, fields: Record<string, string>)
   const rev = (await db.selectFrom("packages").select("current_revision").where("id", "=", id).executeTakeFirstOrThrow()).current_revision;
   const out = await post(user, `/packages/${id}/bench`, { ...fields, expectedRevision: String(rev) }, benchAction as never, { id: String(id) });
   expect(out.status).toBe(200);
-  return out.body.state.revision as number;
+  return JSON.parse(out.body.saved).revision as number;
 }
 
 describe("package list", () => {
