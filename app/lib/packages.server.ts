@@ -412,34 +412,23 @@ export async function saveRevision(
   const ev = evaluation ?? (await evaluateSpec(db, input.spec));
   const next = input.expectedRevision + 1;
   // One statement: the conditional update and the revision insert commit together (or
-  // neither does), in one round trip, and the JSON is sent to the server once.
-  const saved = await db
-    .with("u", (q) =>
-      q
-        .updateTable("packages")
-        .set({
-          current_revision: next,
-          spec: JSON.stringify(ev.spec),
-          results: JSON.stringify(ev.computation),
-          rule_snapshot: JSON.stringify(ev.snapshot),
-          findings: storedFindings(ev.findings),
-          updated_at: sql`now()`,
-          ...syncColumns(ev.spec),
-        })
-        .where("id", "=", input.packageId)
-        .where("current_revision", "=", input.expectedRevision)
-        .returning(["id", "current_revision", "spec", "results", "rule_snapshot", "findings"]),
+  // neither does), in one round trip, and the JSON is sent to the server once. Written as
+  // SQL text: building it with the query builder cost more than running it.
+  const sync = syncColumns(ev.spec);
+  const saved = await sql<{ revision: number }>`
+    with u as (
+      update packages
+         set current_revision = ${next}, spec = ${JSON.stringify(ev.spec)}::jsonb, results = ${JSON.stringify(ev.computation)}::jsonb,
+             rule_snapshot = ${JSON.stringify(ev.snapshot)}::jsonb, findings = ${storedFindings(ev.findings)}::jsonb, updated_at = now(),
+             rev_limit_rpm = ${sync.rev_limit_rpm}, power_hp = ${sync.power_hp}, power_basis = ${sync.power_basis}
+       where id = ${input.packageId} and current_revision = ${input.expectedRevision}
+       returning id, current_revision, spec, results, rule_snapshot, findings
     )
-    .insertInto("package_revisions")
-    .columns(["package_id", "revision", "spec", "results", "rule_snapshot", "findings", "change", "saved_by"])
-    .expression((eb) =>
-      eb
-        .selectFrom("u")
-        .select(["u.id", "u.current_revision", "u.spec", "u.results", "u.rule_snapshot", "u.findings", sql<string>`${input.change}::text`.as("change"), sql<number>`${input.userId}::integer`.as("saved_by")]),
-    )
-    .returning("revision")
-    .executeTakeFirst()
-    .then((r) => r !== undefined);
+    insert into package_revisions (package_id, revision, spec, results, rule_snapshot, findings, change, saved_by)
+    select u.id, u.current_revision, u.spec, u.results, u.rule_snapshot, u.findings, ${input.change}::text, ${input.userId}::integer from u
+    returning revision`
+    .execute(db)
+    .then((r) => r.rows.length > 0);
   if (saved) return { ok: true, revision: next, evaluation: ev };
   return staleDetails(db, input.packageId, input.expectedRevision);
 }
