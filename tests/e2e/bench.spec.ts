@@ -25,6 +25,16 @@ const announced = (page: Page) => page.locator("[id^=DndLiveRegion]").first();
 /** "… is over the cam slot." — the card is over a slot it fits (not "…, which it does not fit."). */
 const overSlot = (slot: string) => `is over the ${SLOT_BY_KEY[slot]!.label.toLowerCase()} slot.`;
 
+/**
+ * Opens the bench and waits until it takes input: the bench's status region for screen
+ * readers is only added once the page runs in the browser, and a drag or a pick before
+ * that goes nowhere.
+ */
+async function openBench(page: Page, id: number) {
+  await page.goto(`/packages/${id}/bench`);
+  await expect(announced(page)).toBeAttached();
+}
+
 // The bench measures its slots and starts listening for keys just after a card is lifted,
 // so every drop waits until the bench says the card is over the slot: a drop before that
 // lands nowhere, as it would for a user who let go too soon.
@@ -54,7 +64,7 @@ test("a builder drags parts onto the slots, sees figures and a finding, and the 
   const id = await freshPackage("E2E drag test");
   await loginAs(page, "builder");
   await page.setViewportSize({ width: 1440, height: 1000 });
-  await page.goto(`/packages/${id}/bench`);
+  await openBench(page, id);
   const parts: [string, string][] = [
     ["TW-CYL-1016", "cylinder"],
     ["TW-FLY-1143", "flywheel"],
@@ -88,6 +98,7 @@ test("a builder drags parts onto the slots, sees figures and a finding, and the 
   await page.screenshot({ path: `${SHOTS}/bench-1440.png`, fullPage: true });
 
   await page.reload();
+  await expect(announced(page)).toBeAttached();
   await expect(page.getByTestId("revision")).toHaveText(revision!);
   await expect(page.getByTestId("slot-cam-part")).toContainText("TW-CAM-585");
   await expect(page.getByTestId("finding-conflict")).toBeVisible();
@@ -115,8 +126,8 @@ test("two tabs on one package: the stale save is refused with what changed, and 
   await loginAs(b, "owner");
   const pa = await a.newPage();
   const pb = await b.newPage();
-  await pa.goto(`/packages/${id}/bench`);
-  await pb.goto(`/packages/${id}/bench`);
+  await openBench(pa, id);
+  await openBench(pb, id);
   await pa.getByTestId("slot-cylinder").getByRole("combobox").selectOption({ label: "TW-CYL-1048 · Big-bore cylinder pair, 104.8 mm" });
   await expect(pa.getByTestId("revision")).toHaveText("revision 2");
   await pb.getByTestId("slot-flywheel").getByRole("combobox").selectOption({ label: "TW-FLY-1175 · Stroker flywheel assembly, 117.5 mm" });
