@@ -94,6 +94,10 @@ test("a builder drags parts onto the slots, sees figures and a finding, and the 
   await expect(page.getByTestId("result-displacementCi")).toContainText("113.");
   await expect(page.getByTestId("finding-conflict")).toContainText("Head gasket bore smaller than the cylinder bore");
   await expect(page.getByText("saving…")).toHaveCount(0);
+  // the work shown is built in the browser from the saved spec
+  await page.getByText("Show the work").click();
+  await expect(page.getByTestId("work-steps")).toContainText("Displacement");
+  await expect(page.getByTestId("work-steps")).toContainText("not computed");
   const revision = await page.getByTestId("revision").textContent();
   await page.screenshot({ path: `${SHOTS}/bench-1440.png`, fullPage: true });
 
