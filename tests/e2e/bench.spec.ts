@@ -53,8 +53,11 @@ async function drag(page: Page, partNumber: string, slot: string) {
   await expect(page.getByTestId(`slot-${slot}-part`)).toContainText(partNumber);
 }
 
+// The shelf first lists the whole catalog, the searched card among it; a search is done
+// when the shelf shows only what matches, and not before: the list changes under the mouse.
 async function search(page: Page, q: string) {
   await page.getByPlaceholder("Search number, name, tag…").fill(q);
+  await expect(page.getByTestId("shelf-list").locator("li").filter({ hasNotText: q })).toHaveCount(0);
   await expect(page.getByTestId(`part-${q}`)).toBeVisible();
 }
 
