@@ -268,17 +268,24 @@ function operator(n: Record<string, any>, depth: number, acc: Acc): Checked {
   if (fnName in ARITH && args.length === 2) {
     const [a, b] = args.map((x) => expect(walk(x, depth + 1, acc), "number", x, acc, `${op} works on numbers`));
     const f = ARITH[fnName]!;
-    return { ty: "number", fn: (ctx) => finite(f(num(a!.fn(ctx), "the left side of " + op), num(b!.fn(ctx), "the right side of " + op)), nodeText(node)) };
+    // the texts of possible errors are built once, when the rule is compiled
+    const left = "the left side of " + op;
+    const right = "the right side of " + op;
+    const text = nodeText(node);
+    return { ty: "number", fn: (ctx) => finite(f(num(a!.fn(ctx), left), num(b!.fn(ctx), right)), text) };
   }
   if ((fnName === "unaryMinus" || fnName === "unaryPlus") && args.length === 1) {
     const a = expect(walk(args[0]!, depth + 1, acc), "number", args[0]!, acc, `${op} works on numbers`);
     const sign = fnName === "unaryMinus" ? -1 : 1;
-    return { ty: "number", fn: (ctx) => sign * num(a.fn(ctx), nodeText(node)) };
+    const text = nodeText(node);
+    return { ty: "number", fn: (ctx) => sign * num(a.fn(ctx), text) };
   }
   if (fnName in COMPARE && args.length === 2) {
     const [a, b] = args.map((x) => expect(walk(x, depth + 1, acc), "number", x, acc, `${op} compares numbers`));
     const f = COMPARE[fnName]!;
-    return { ty: "boolean", fn: (ctx) => f(num(a!.fn(ctx), "the left side of " + op), num(b!.fn(ctx), "the right side of " + op)) };
+    const left = "the left side of " + op;
+    const right = "the right side of " + op;
+    return { ty: "boolean", fn: (ctx) => f(num(a!.fn(ctx), left), num(b!.fn(ctx), right)) };
   }
   if ((fnName === "equal" || fnName === "unequal") && args.length === 2) {
     const [a, b] = args.map((x) => walk(x, depth + 1, acc)) as [Checked, Checked];
