@@ -85,7 +85,8 @@ const cookie = (await createSession(db, builder.id)).split(";")[0]!;
 
 // ---- the built server, in its own process ----
 const serverEntry = path.join(ROOT, "build/server/index.js");
-if (!existsSync(serverEntry)) sh("npx", ["react-router", "build"]);
+// figures always describe the code as it is: build first (BENCH_SKIP_BUILD=1 reuses build/)
+if (process.env.BENCH_SKIP_BUILD !== "1" || !existsSync(serverEntry)) sh("npx", ["react-router", "build"]);
 const port = await new Promise<number>((resolve, reject) => {
   const s = createServer();
   s.once("error", reject);
