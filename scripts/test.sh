@@ -61,5 +61,8 @@ if [ "$status" != 0 ] && [ "$(echo "$summary" | sed -E 's/.* ([0-9]+) failed/\1/
   # a failure outside any test (typecheck, build, a crashed runner) still counts
   summary=$(echo "$summary" | sed -E 's/ 0 failed$/ 1 failed/')
 fi
+# stop what we started first, so the summary is the very last line
+trap - EXIT
+cleanup
 echo "$summary"
 exit $status
