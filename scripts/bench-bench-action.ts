@@ -15,6 +15,7 @@ import { fileURLToPath, pathToFileURL } from "node:url";
 import { gzipSync } from "node:zlib";
 import autocannon, { type Request as LoadRequest } from "autocannon";
 import pg from "pg";
+import { generatedCondition } from "./lib/generated-rules";
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 10);
@@ -51,21 +52,12 @@ await resetDatabase(DATABASE_URL);
 const db = getDb();
 await seed(db);
 
-const TEMPLATES = [
-  (i: number) => `power_hp > ${120 + (i % 60)} and has("stock-axle-adjusters")`,
-  (i: number) => `riser_in > ${8 + (i % 8)} and has("stock-clutch-cable")`,
-  () => 'filled("gasket") and filled("cylinder") and gasket.bore_mm < cylinder.bore_mm',
-  (i: number) => `known(cr_static) and cr_static > ${10 + (i % 20) / 10} and not has("compression-release")`,
-  () => 'filled("cam") and filled("springs") and cam.lift_mm > springs.max_lift_mm',
-  (i: number) => `known(piston_speed_peak_ms) and piston_speed_peak_ms > ${22 + (i % 6)} or has("tw-part-${i}")`,
-  (i: number) => `known(rev_limit_rpm) and bore_mm / stroke_mm < ${0.8 + (i % 10) / 100} and rev_limit_rpm > 6000`,
-];
 const active = async () => Number((await db.selectFrom("fit_rules").select((eb) => eb.fn.countAll<string>().as("n")).where("active", "=", true).executeTakeFirstOrThrow()).n);
 for (let i = await active(); i < RULES; i++) {
   const kind = (["conflict", "upgrade", "caution"] as const)[i % 3]!;
   const out = await createRule(
     db,
-    { name: `Load rule ${i + 1}`, kind, condition: TEMPLATES[i % TEMPLATES.length]!(i), message: "Generated for the load benchmark.", upgrade_category: kind === "upgrade" ? "axle_adjusters" : null, suggested_part_id: null, active: true },
+    { name: `Load rule ${i + 1}`, kind, condition: generatedCondition(i), message: "Generated for the load benchmark.", upgrade_category: kind === "upgrade" ? "axle_adjusters" : null, suggested_part_id: null, active: true },
     null,
   );
   if (!out.ok) throw new Error(`rule ${i + 1} did not compile: ${JSON.stringify(out.check)}`);

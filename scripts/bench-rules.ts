@@ -3,23 +3,14 @@
 import { compileConditionText } from "../app/lib/rule-condition.server";
 import { evaluateRules, previewAgainst, type RuleForEval } from "../app/lib/fit-rules.server";
 import { buildRuleSnapshot, type RuleSnapshotInput } from "../app/lib/rule-snapshot";
-
-const TEMPLATES = [
-  (i: number) => `power_hp > ${120 + (i % 60)} and has("stock-axle-adjusters")`,
-  (i: number) => `riser_in > ${8 + (i % 8)} and has("stock-clutch-cable")`,
-  () => 'filled("gasket") and filled("cylinder") and gasket.bore_mm < cylinder.bore_mm',
-  (i: number) => `known(cr_static) and cr_static > ${10 + (i % 20) / 10} and not has("compression-release")`,
-  () => 'filled("cam") and filled("springs") and cam.lift_mm > springs.max_lift_mm',
-  (i: number) => `known(piston_speed_peak_ms) and piston_speed_peak_ms > ${22 + (i % 6)} or has("tw-part-${i}")`,
-  (i: number) => `max(bore_mm, 0) / stroke_mm < ${0.8 + (i % 10) / 100} and rev_limit_rpm > 6000`,
-];
+import { generatedCondition } from "./lib/generated-rules";
 
 const rules: RuleForEval[] = Array.from({ length: 500 }, (_, i) => ({
   id: i + 1,
   version: 1,
   name: `Rule ${i + 1}`,
   kind: (["conflict", "upgrade", "caution"] as const)[i % 3]!,
-  condition: TEMPLATES[i % TEMPLATES.length]!(i),
+  condition: generatedCondition(i),
   message: "m",
   upgrade_category: null,
   suggested_part_id: null,
