@@ -149,3 +149,21 @@ test("two tabs on one package: the stale save is refused with what changed, and 
   await a.close();
   await b.close();
 });
+
+test("a measured value that cannot be is refused beside its slot, keeps what was typed, and saves nothing", async ({ page, context }) => {
+  const id = await freshPackage("E2E refused measurement");
+  await loginAs(context, "builder");
+  await openBench(page, id);
+  await page.getByTestId("slot-head").getByRole("combobox").selectOption({ label: "TW-HD-0845 · Ported heads, 84.5 cc" });
+  await expect(page.getByTestId("revision")).toHaveText("revision 2");
+  const chamber = page.getByTestId("field-chamberCc");
+  await chamber.getByRole("button", { name: "Enter measured" }).click();
+  await chamber.getByRole("textbox").fill("-5");
+  await chamber.getByRole("button", { name: "Save" }).click();
+  await expect(chamber.getByRole("alert")).toContainText("negative");
+  await expect(chamber.getByRole("textbox")).toHaveValue("-5");
+  await expect(chamber.getByRole("textbox")).toHaveAttribute("aria-invalid", "true");
+  await expect(page.getByTestId("revision")).toHaveText("revision 2");
+  await page.reload();
+  await expect(page.getByTestId("field-chamberCc")).toContainText("84.5 cc");
+});

@@ -117,6 +117,8 @@ function MeasuredRow(props: {
 }) {
   const { resolved: r, units, quantity: q } = props;
   const [editing, setEditing] = useState(false);
+  // what the user last typed: a refused value stays in the box beside its reason
+  const [attempt, setAttempt] = useState<string | null>(null);
   const id = useId();
   const showEditor = editing || Boolean(props.error);
   const unit = q === "length" ? (units === "inch" ? "in" : "mm") : q === "angle" ? "°" : "cc";
@@ -147,6 +149,7 @@ function MeasuredRow(props: {
           onSubmit={(e) => {
             e.preventDefault();
             const text = String(new FormData(e.currentTarget).get("value") ?? "");
+            setAttempt(text);
             props.actions.measure(props.slotKey, props.field, text);
             setEditing(false);
           }}
@@ -158,7 +161,7 @@ function MeasuredRow(props: {
             id={id}
             name="value"
             inputMode="decimal"
-            defaultValue={inputValue(r.value, q, units)}
+            defaultValue={props.error && attempt !== null ? attempt : inputValue(r.value, q, units)}
             aria-invalid={props.error ? true : undefined}
             aria-describedby={props.error ? `${id}-err` : undefined}
             className="num w-24 rounded border border-steel-300 px-1.5 py-0.5"
