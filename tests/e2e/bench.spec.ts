@@ -150,7 +150,7 @@ test("two tabs on one package: the stale save is refused with what changed, and 
   await b.close();
 });
 
-test("a measured value that cannot be is refused beside its slot, keeps what was typed, and saves nothing", async ({ page, context }) => {
+test("an impossible measured value is refused beside its slot, keeps what was typed, and saves nothing", async ({ page, context }) => {
   const id = await freshPackage("E2E refused measurement");
   await loginAs(context, "builder");
   await openBench(page, id);
