@@ -7,7 +7,12 @@ export default defineConfig({
     alias: { "~": fileURLToPath(new URL("./app", import.meta.url)) },
   },
   test: {
-    include: ["calc/**/*.test.ts", "app/**/*.test.ts", "db/**/*.test.ts", "tests/integration/**/*.test.ts"],
+    include: [
+      "calc/**/*.test.ts",
+      "app/**/*.test.ts",
+      "db/**/*.test.ts",
+      "tests/integration/**/*.test.ts",
+    ],
     globalSetup: ["tests/support/global-setup.ts"],
     setupFiles: ["tests/support/fail-on-console.ts"],
     env: {

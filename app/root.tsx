@@ -8,10 +8,10 @@ import {
   useRouteLoaderData,
 } from "react-router";
 import type { Route } from "./+types/root";
-import { AppHeader } from "./components/app-header";
-import { getUser } from "./lib/auth.server";
+import { AppHeader } from "./components/shell/app-header";
+import { getUser } from "./lib/auth/auth.server";
 import { env } from "./lib/env.server";
-import { ensureJobWorkers } from "./lib/jobs.server";
+import { ensureJobWorkers } from "./lib/mail/workers.server";
 import "./app.css";
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -49,7 +49,8 @@ export default function App() {
 export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
   let status = 500;
   let title = "Something went wrong";
-  let detail = "The shop's server hit an error it did not expect. Try again; if it keeps happening, tell the owner.";
+  let detail =
+    "The shop's server hit an error it did not expect. Try again; if it keeps happening, tell the owner.";
   let stack: string | undefined;
 
   if (isRouteErrorResponse(error)) {
@@ -59,7 +60,10 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
       detail = "Nothing lives at this address. Check the link, or start again from the home page.";
     } else if (error.status === 403) {
       title = "Not for your role";
-      detail = typeof error.data === "string" && error.data ? error.data : "Your account's role does not include this page.";
+      detail =
+        typeof error.data === "string" && error.data
+          ? error.data
+          : "Your account's role does not include this page.";
     } else {
       title = error.statusText || title;
       if (typeof error.data === "string" && error.data) detail = error.data;
@@ -71,14 +75,21 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
 
   return (
     <main className="mx-auto max-w-3xl px-4 py-16">
-      <p className="num text-sm font-semibold uppercase tracking-widest text-steel-700">Error {status}</p>
+      <p className="num text-sm font-semibold uppercase tracking-widest text-steel-700">
+        Error {status}
+      </p>
       <h1 className="mt-2 text-3xl font-semibold text-ink">{title}</h1>
       <p className="mt-4 text-lg text-steel-700">{detail}</p>
-      <a href="/" className="mt-8 inline-block rounded bg-teal px-4 py-2 font-semibold text-white hover:bg-teal-dark">
+      <a
+        href="/"
+        className="mt-8 inline-block rounded bg-teal px-4 py-2 font-semibold text-white hover:bg-teal-dark"
+      >
         Back to the home page
       </a>
       {stack ? (
-        <pre className="mt-8 overflow-x-auto rounded border border-steel-200 bg-white p-4 text-xs text-steel-700">{stack}</pre>
+        <pre className="mt-8 overflow-x-auto rounded border border-steel-200 bg-white p-4 text-xs text-steel-700">
+          {stack}
+        </pre>
       ) : null}
     </main>
   );

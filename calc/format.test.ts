@@ -21,15 +21,23 @@ describe("number formatting for worked steps", () => {
 
   it("matches toPrecision for any finite number and 1–9 digits", () => {
     fc.assert(
-      fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }), fc.integer({ min: 1, max: 9 }), (x, d) => {
-        expect(fmt(x, d)).toBe(reference(x, d));
-      }),
+      fc.property(
+        fc.double({ noNaN: true, noDefaultInfinity: true }),
+        fc.integer({ min: 1, max: 9 }),
+        (x, d) => {
+          expect(fmt(x, d)).toBe(reference(x, d));
+        },
+      ),
       { numRuns: 5000 },
     );
     fc.assert(
-      fc.property(fc.double({ min: -1e7, max: 1e7, noNaN: true }), fc.integer({ min: 1, max: 9 }), (x, d) => {
-        expect(fmt(x, d)).toBe(reference(x, d));
-      }),
+      fc.property(
+        fc.double({ min: -1e7, max: 1e7, noNaN: true }),
+        fc.integer({ min: 1, max: 9 }),
+        (x, d) => {
+          expect(fmt(x, d)).toBe(reference(x, d));
+        },
+      ),
       { numRuns: 5000 },
     );
   });

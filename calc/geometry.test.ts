@@ -113,7 +113,10 @@ describe("compression ratio (Heywood 1988 §2.2: r_c = (V_d + V_c)/V_c)", () => 
   it("a wider gasket bore adds volume", () => {
     // derived: gasket cylinder (π/4)·B_g²·t
     const wide = clearanceVolumeCc({ ...base, gasketBoreMm: 102 });
-    expect(wide - clearanceVolumeCc(base)).toBeCloseTo((Math.PI / 4) * (102 * 102 - 100 * 100) * 1e-3, 9);
+    expect(wide - clearanceVolumeCc(base)).toBeCloseTo(
+      (Math.PI / 4) * (102 * 102 - 100 * 100) * 1e-3,
+      9,
+    );
   });
 
   it("rejects impossible inputs", () => {
@@ -158,8 +161,11 @@ describe("slider-crank piston motion (Heywood 1988 §2.2)", () => {
     const rpm = 4000;
     for (const deg of [10, 30, 60, 75, 120, 150]) {
       const t = (deg * Math.PI) / 180;
-      const ratio = (Math.PI / 2) * Math.sin(t) * (1 + Math.cos(t) / Math.sqrt(R * R - Math.sin(t) ** 2));
-      expect(rel(pistonSpeedMs(L, l, rpm, deg), ratio * meanPistonSpeedMs(L, rpm))).toBeLessThan(1e-12);
+      const ratio =
+        (Math.PI / 2) * Math.sin(t) * (1 + Math.cos(t) / Math.sqrt(R * R - Math.sin(t) ** 2));
+      expect(rel(pistonSpeedMs(L, l, rpm, deg), ratio * meanPistonSpeedMs(L, rpm))).toBeLessThan(
+        1e-12,
+      );
     }
   });
 
@@ -169,7 +175,9 @@ describe("slider-crank piston motion (Heywood 1988 §2.2)", () => {
     const omega = (rpm * 2 * Math.PI) / 60;
     const h = 1e-4;
     for (const deg of [5, 33, 64, 90, 111, 170, 250, 300]) {
-      const dy = (pistonPositionMm(L, l, deg + h) - pistonPositionMm(L, l, deg - h)) / ((2 * h * Math.PI) / 180);
+      const dy =
+        (pistonPositionMm(L, l, deg + h) - pistonPositionMm(L, l, deg - h)) /
+        ((2 * h * Math.PI) / 180);
       const numeric = (dy * omega) / 1000;
       expect(Math.abs(pistonSpeedMs(L, l, rpm, deg) - numeric)).toBeLessThan(1e-6);
     }
@@ -217,7 +225,8 @@ describe("peak piston speed (exact slider-crank)", () => {
       expect(rel(peak, pistonSpeedMs(L, l, 1000, deg))).toBeLessThan(1e-15);
       // acceleration by central difference of the speed
       const h = 1e-3;
-      const acc = (pistonSpeedMs(L, l, 1000, deg + h) - pistonSpeedMs(L, l, 1000, deg - h)) / (2 * h);
+      const acc =
+        (pistonSpeedMs(L, l, 1000, deg + h) - pistonSpeedMs(L, l, 1000, deg - h)) / (2 * h);
       const scale = peak / 90;
       expect(Math.abs(acc) / scale).toBeLessThan(1e-6);
     }
@@ -228,13 +237,18 @@ describe("peak piston speed (exact slider-crank)", () => {
     const deg = peakPistonSpeedCrankDeg(114.3, 190.5);
     expect(deg).toBeGreaterThan(70);
     expect(deg).toBeLessThan(80);
-    expect(peakPistonSpeedMs(114.3, 190.5, 5800)).toBeGreaterThan(pistonSpeedMs(114.3, 190.5, 5800, 90));
+    expect(peakPistonSpeedMs(114.3, 190.5, 5800)).toBeGreaterThan(
+      pistonSpeedMs(114.3, 190.5, 5800, 90),
+    );
   });
 
   it("tends to 90° and π/2 × the mean speed for a very long rod", () => {
     // derived: with l → ∞ the motion is simple harmonic, peak a·ω = (π/2)·S̄_p at 90°
     expect(peakPistonSpeedCrankDeg(100, 1e7)).toBeCloseTo(90, 3);
-    expect(peakPistonSpeedMs(100, 1e7, 6000) / meanPistonSpeedMs(100, 6000)).toBeCloseTo(Math.PI / 2, 6);
+    expect(peakPistonSpeedMs(100, 1e7, 6000) / meanPistonSpeedMs(100, 6000)).toBeCloseTo(
+      Math.PI / 2,
+      6,
+    );
   });
 
   it("rejects a rod not longer than half the stroke", () => {
@@ -255,7 +269,10 @@ describe("dynamic compression (derived: V(180° + IVC)/V_c)", () => {
   it("a worked example at 90° after BDC", () => {
     // derived: θ = 270°, y = l + a − √(l² − a²) = 58.5786 mm; V = 77.854 + (π/4)·100²·58.5786/1000 = 537.93 cc
     const v = 77.853982 + (Math.PI / 4) * 100 * 100 * 58.578644e-3;
-    expect(dynamicCompressionRatio({ ...dyn, intakeClosesAbdcDeg: 90 })).toBeCloseTo(v / 77.853982, 5);
+    expect(dynamicCompressionRatio({ ...dyn, intakeClosesAbdcDeg: 90 })).toBeCloseTo(
+      v / 77.853982,
+      5,
+    );
   });
 
   it("agrees with V_c + (π/4)·B²·y(180° + IVC) from the piston position", () => {
@@ -264,7 +281,9 @@ describe("dynamic compression (derived: V(180° + IVC)/V_c)", () => {
     for (const ivc of [0.5, 20, 45, 63, 100, 150]) {
       const y = pistonPositionMm(100, 150, 180 + ivc);
       const expected = (vc + (Math.PI / 4) * 100 * 100 * y * 1e-3) / vc;
-      expect(rel(dynamicCompressionRatio({ ...dyn, intakeClosesAbdcDeg: ivc }), expected)).toBeLessThan(1e-12);
+      expect(
+        rel(dynamicCompressionRatio({ ...dyn, intakeClosesAbdcDeg: ivc }), expected),
+      ).toBeLessThan(1e-12);
     }
   });
 
@@ -279,8 +298,12 @@ describe("dynamic compression (derived: V(180° + IVC)/V_c)", () => {
   });
 
   it("rejects closing angles outside 0–180° after BDC", () => {
-    expect(() => dynamicCompressionRatio({ ...dyn, intakeClosesAbdcDeg: -5 })).toThrow(/intakeClosesAbdcDeg/);
-    expect(() => dynamicCompressionRatio({ ...dyn, intakeClosesAbdcDeg: 180 })).toThrow(/intakeClosesAbdcDeg/);
+    expect(() => dynamicCompressionRatio({ ...dyn, intakeClosesAbdcDeg: -5 })).toThrow(
+      /intakeClosesAbdcDeg/,
+    );
+    expect(() => dynamicCompressionRatio({ ...dyn, intakeClosesAbdcDeg: 180 })).toThrow(
+      /intakeClosesAbdcDeg/,
+    );
   });
 
   it("the note for screens says the cam card's lift decides", () => {

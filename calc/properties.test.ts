@@ -25,7 +25,8 @@ import {
 } from "./index";
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
-const num = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+const num = (min: number, max: number) =>
+  fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
 
 /** Plausible engine geometry, every combination physical. */
 const staticSpec: fc.Arbitrary<StaticInputs> = fc
@@ -47,12 +48,18 @@ const dynamicSpec = fc
 describe("properties", () => {
   it("displacement scales with bore² and with stroke", () => {
     fc.assert(
-      fc.property(num(1, 200), num(1, 200), num(0.05, 20), fc.integer({ min: 1, max: 16 }), (B, L, k, n) => {
-        const d = displacementCc(B, L, n);
-        expect(rel(displacementCc(k * B, L, n), k * k * d)).toBeLessThan(1e-12);
-        expect(rel(displacementCc(B, k * L, n), k * d)).toBeLessThan(1e-12);
-        expect(rel(displacementCc(B, L, 2 * n), 2 * d)).toBeLessThan(1e-15);
-      }),
+      fc.property(
+        num(1, 200),
+        num(1, 200),
+        num(0.05, 20),
+        fc.integer({ min: 1, max: 16 }),
+        (B, L, k, n) => {
+          const d = displacementCc(B, L, n);
+          expect(rel(displacementCc(k * B, L, n), k * k * d)).toBeLessThan(1e-12);
+          expect(rel(displacementCc(B, k * L, n), k * d)).toBeLessThan(1e-12);
+          expect(rel(displacementCc(B, L, 2 * n), 2 * d)).toBeLessThan(1e-15);
+        },
+      ),
     );
   });
 
@@ -64,7 +71,9 @@ describe("properties", () => {
         // each change takes away less than the whole clearance volume, so the package stays physical
         const less = f * Math.min(s.chamberCc, vc);
         expect(staticCompressionRatio({ ...s, chamberCc: s.chamberCc - less })).toBeGreaterThan(r);
-        expect(staticCompressionRatio({ ...s, pistonDomeCc: s.pistonDomeCc + f * vc })).toBeGreaterThan(r);
+        expect(
+          staticCompressionRatio({ ...s, pistonDomeCc: s.pistonDomeCc + f * vc }),
+        ).toBeGreaterThan(r);
         const thinner = s.gasketThicknessMm * (1 - f);
         fc.pre(s.deckClearanceMm + thinner > 0);
         expect(staticCompressionRatio({ ...s, gasketThicknessMm: thinner })).toBeGreaterThan(r);
@@ -80,7 +89,9 @@ describe("properties", () => {
         const dome = solveDomeCcForRatio(target, s);
         expect(dome.ok).toBe(true);
         if (dome.ok) {
-          expect(rel(staticCompressionRatio({ ...s, pistonDomeCc: dome.value }), target)).toBeLessThan(1e-9);
+          expect(
+            rel(staticCompressionRatio({ ...s, pistonDomeCc: dome.value }), target),
+          ).toBeLessThan(1e-9);
         }
         const gasket = solveGasketThicknessForRatio(target, s);
         if (gasket.ok) {
@@ -90,7 +101,8 @@ describe("properties", () => {
           expect(rel(r, target)).toBeLessThan(1e-9);
         } else {
           // no answer only when the thickness needed is not positive or too thin for the deck
-          const vc = s.chamberCc + (Math.PI / 4) * s.boreMm ** 2 * s.deckClearanceMm * 1e-3 - s.pistonDomeCc;
+          const vc =
+            s.chamberCc + (Math.PI / 4) * s.boreMm ** 2 * s.deckClearanceMm * 1e-3 - s.pistonDomeCc;
           const need = ((Math.PI / 4) * s.boreMm ** 2 * s.strokeMm * 1e-3) / (target - 1);
           const t = (need - vc) / ((Math.PI / 4) * s.gasketBoreMm ** 2 * 1e-3);
           expect(t <= 0 || s.deckClearanceMm + t <= 0).toBe(true);
@@ -99,7 +111,9 @@ describe("properties", () => {
         if (chamber.ok) {
           solvedChamber++;
           expect(chamber.value).toBeGreaterThan(0);
-          expect(rel(staticCompressionRatio({ ...s, chamberCc: chamber.value }), target)).toBeLessThan(1e-9);
+          expect(
+            rel(staticCompressionRatio({ ...s, chamberCc: chamber.value }), target),
+          ).toBeLessThan(1e-9);
         } else {
           expect(chamber.errors[0]?.field).toBe("chamberCc");
         }
@@ -114,7 +128,9 @@ describe("properties", () => {
     fc.assert(
       fc.property(dynamicSpec, (s) => {
         const scr = staticCompressionRatio(s);
-        expect(rel(dynamicCompressionRatio({ ...s, intakeClosesAbdcDeg: 0 }), scr)).toBeLessThan(1e-12);
+        expect(rel(dynamicCompressionRatio({ ...s, intakeClosesAbdcDeg: 0 }), scr)).toBeLessThan(
+          1e-12,
+        );
         const dcr = dynamicCompressionRatio(s);
         expect(dcr).toBeLessThanOrEqual(scr);
         expect(dcr).toBeGreaterThanOrEqual(1);
@@ -140,7 +156,8 @@ describe("properties", () => {
   it("unit conversions round-trip", () => {
     fc.assert(
       fc.property(num(-1e12, 1e12), (x) => {
-        const close = (y: number) => expect(Math.abs(y - x)).toBeLessThanOrEqual(Math.abs(x) * 1e-15 + 1e-300);
+        const close = (y: number) =>
+          expect(Math.abs(y - x)).toBeLessThanOrEqual(Math.abs(x) * 1e-15 + 1e-300);
         close(mmToIn(inToMm(x)));
         close(ccToCi(ciToCc(x)));
         close(nmToLbFt(lbFtToNm(x)));
@@ -153,7 +170,15 @@ describe("properties", () => {
   const anyNumber = fc.oneof(
     fc.double(),
     num(-5, 200),
-    fc.constantFrom(Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY, 0, -0, 1e308, 5e-324),
+    fc.constantFrom(
+      Number.NaN,
+      Number.POSITIVE_INFINITY,
+      Number.NEGATIVE_INFINITY,
+      0,
+      -0,
+      1e308,
+      5e-324,
+    ),
   );
   const maybe = <T>(a: fc.Arbitrary<T>) => fc.option(a, { nil: undefined, freq: 4 });
 
@@ -172,7 +197,9 @@ describe("properties", () => {
           rodLengthMm: maybe(anyNumber),
           intakeClosesAbdcDeg: maybe(anyNumber),
           revLimitRpm: maybe(fc.oneof(fc.double(), num(100, 20000))),
-          thresholds: maybe(fc.record({ staticCrMax: maybe(anyNumber), quenchMinMm: maybe(anyNumber) })),
+          thresholds: maybe(
+            fc.record({ staticCrMax: maybe(anyNumber), quenchMinMm: maybe(anyNumber) }),
+          ),
         }),
         (spec) => {
           let r: ReturnType<typeof computeSpec> | undefined;
@@ -225,7 +252,8 @@ describe("properties", () => {
         (spec) => {
           const r = computeSpec(spec);
           if (r.ok) {
-            for (const v of Object.values(r.results)) expect(v === null || Number.isFinite(v)).toBe(true);
+            for (const v of Object.values(r.results))
+              expect(v === null || Number.isFinite(v)).toBe(true);
           } else {
             expect(r.errors.every((e) => e.field.length > 0 && e.message.length > 0)).toBe(true);
           }
@@ -240,7 +268,10 @@ describe("properties", () => {
       fc.property(dynamicSpec, num(1000, 10000), (s, rpm) => {
         const r = computeSpec({ ...s, revLimitRpm: rpm });
         expect(r.ok).toBe(true);
-        if (r.ok) expect(Object.values(r.results).every((v) => v !== null && Number.isFinite(v))).toBe(true);
+        if (r.ok)
+          expect(Object.values(r.results).every((v) => v !== null && Number.isFinite(v))).toBe(
+            true,
+          );
       }),
     );
   });

@@ -70,7 +70,9 @@ function prepare(target: number, s: SolveInput, unknown: SpecField): Known | Err
   if (!(Number.isFinite(vd) && Number.isFinite(vcNeeded) && vcNeeded > 0)) {
     return {
       ok: false,
-      errors: [{ field: "target", message: "gives a clearance volume too small or too large to compute" }],
+      errors: [
+        { field: "target", message: "gives a clearance volume too small or too large to compute" },
+      ],
     };
   }
   return {
@@ -112,7 +114,8 @@ export function solveDomeCcForRatio(target: number, s: SolveInput): SolveResult 
 export function solveGasketThicknessForRatio(target: number, s: SolveInput): SolveResult {
   const k = prepare(target, s, "gasketThicknessMm");
   if (isError(k)) return k;
-  const value = (k.vcNeeded - k.chamber - cylinderCcRaw(k.B, k.deck) + k.dome) / cylinderCcRaw(k.gasketBore, 1);
+  const value =
+    (k.vcNeeded - k.chamber - cylinderCcRaw(k.B, k.deck) + k.dome) / cylinderCcRaw(k.gasketBore, 1);
   if (!(Number.isFinite(value) && value > 0)) {
     return {
       ok: false,

@@ -115,7 +115,12 @@ describe("computeSpec on a full package", () => {
     const relaxed = ok(
       computeSpec({
         ...full,
-        thresholds: { staticCrMax: 11.5, dynamicCrMax: 11, meanPistonSpeedMaxMs: 25, peakPistonSpeedMaxMs: 40 },
+        thresholds: {
+          staticCrMax: 11.5,
+          dynamicCrMax: 11,
+          meanPistonSpeedMaxMs: 25,
+          peakPistonSpeedMaxMs: 40,
+        },
       }),
     );
     expect(relaxed.cautions).toEqual([]);
@@ -224,7 +229,9 @@ describe("half-filled packages", () => {
     expect(r.results.staticCr).not.toBeNull();
     expect(r.results.meanPistonSpeedMs).not.toBeNull();
     expect(r.missing).toEqual(["rodLengthMm"]);
-    expect(r.steps.find((s) => s.id === "dynamicCr")?.substituted).toBe("not computed: needs rodLengthMm");
+    expect(r.steps.find((s) => s.id === "dynamicCr")?.substituted).toBe(
+      "not computed: needs rodLengthMm",
+    );
   });
 
   it("each result is computed exactly when its inputs are there", () => {
@@ -255,8 +262,12 @@ describe("invalid input is named, never NaN, never thrown", () => {
     expect(errorFields({ ...full, strokeMm: -114.3 })).toEqual(["strokeMm"]);
     expect(errorFields({ ...full, chamberCc: Number.NaN })).toEqual(["chamberCc"]);
     expect(errorFields({ ...full, gasketThicknessMm: 0 })).toEqual(["gasketThicknessMm"]);
-    expect(errorFields({ ...full, rodLengthMm: Number.POSITIVE_INFINITY })).toEqual(["rodLengthMm"]);
-    expect(errorFields({ ...full, deckClearanceMm: Number.NEGATIVE_INFINITY })).toEqual(["deckClearanceMm"]);
+    expect(errorFields({ ...full, rodLengthMm: Number.POSITIVE_INFINITY })).toEqual([
+      "rodLengthMm",
+    ]);
+    expect(errorFields({ ...full, deckClearanceMm: Number.NEGATIVE_INFINITY })).toEqual([
+      "deckClearanceMm",
+    ]);
     expect(errorFields({ ...full, pistonDomeCc: Number.NaN })).toEqual(["pistonDomeCc"]);
     expect(errorFields({ ...full, revLimitRpm: 0 })).toEqual(["revLimitRpm"]);
   });
@@ -301,9 +312,15 @@ describe("invalid input is named, never NaN, never thrown", () => {
   });
 
   it("bad thresholds", () => {
-    expect(errorFields({ ...full, thresholds: { staticCrMax: -1 } })).toEqual(["thresholds.staticCrMax"]);
-    expect(errorFields({ ...full, thresholds: { quenchMinMm: 2 } })).toEqual(["thresholds.quenchMinMm"]);
-    expect(errorFields({ ...full, thresholds: 5 as unknown as SpecInput["thresholds"] })).toEqual(["thresholds"]);
+    expect(errorFields({ ...full, thresholds: { staticCrMax: -1 } })).toEqual([
+      "thresholds.staticCrMax",
+    ]);
+    expect(errorFields({ ...full, thresholds: { quenchMinMm: 2 } })).toEqual([
+      "thresholds.quenchMinMm",
+    ]);
+    expect(errorFields({ ...full, thresholds: 5 as unknown as SpecInput["thresholds"] })).toEqual([
+      "thresholds",
+    ]);
   });
 
   it("several problems are all listed", () => {
@@ -316,7 +333,9 @@ describe("invalid input is named, never NaN, never thrown", () => {
 
   it("figures too large to compute are an error, not Infinity", () => {
     expect(errorFields({ boreMm: 1e200, strokeMm: 1e200 })).toEqual(["boreMm"]);
-    expect(errorFields({ deckClearanceMm: 1e308, gasketThicknessMm: 1e308 })).toEqual(["gasketThicknessMm"]);
+    expect(errorFields({ deckClearanceMm: 1e308, gasketThicknessMm: 1e308 })).toEqual([
+      "gasketThicknessMm",
+    ]);
     expect(errorFields({ strokeMm: 1e308, revLimitRpm: 1e308 })).toEqual(["revLimitRpm"]);
   });
 });

@@ -4,16 +4,10 @@
  */
 import type { ErrorResult } from "./errors";
 import { fmt } from "./format";
-import {
-  cylinderCcRaw,
-  heightAboveBdcRaw,
-  peakSpeedAngleRaw,
-  pistonVelocityRaw,
-} from "./geometry";
+import { cylinderCcRaw, heightAboveBdcRaw, peakSpeedAngleRaw, pistonVelocityRaw } from "./geometry";
 import type { Thresholds } from "./thresholds";
 import { CC_PER_CI, mmToIn, msToFtMin } from "./units";
 import {
-
   CLEARANCE_FIELDS,
   validateSpec,
   type CheckedSpec,
@@ -22,7 +16,8 @@ import {
 } from "./validate";
 
 /** An input as shown in a worked step: 9 significant figures, no floating-point tail. */
-const fin = (x: number | null | undefined): string => (x === null || x === undefined ? "" : fmt(x, 9));
+const fin = (x: number | null | undefined): string =>
+  x === null || x === undefined ? "" : fmt(x, 9);
 
 export interface SpecResults {
   /** Engine displacement, cc. */
@@ -313,7 +308,15 @@ function compute(input: SpecInput, withSteps: boolean): SpecOutcome {
 
   let dcr: number | null = null;
   let yIvc = 0;
-  if (scr !== null && swept !== null && vc !== null && B !== null && L !== null && l !== null && s.intakeClosesAbdcDeg !== null) {
+  if (
+    scr !== null &&
+    swept !== null &&
+    vc !== null &&
+    B !== null &&
+    L !== null &&
+    l !== null &&
+    s.intakeClosesAbdcDeg !== null
+  ) {
     const above = heightAboveBdcRaw(L / 2, l, s.intakeClosesAbdcDeg);
     yIvc = L - above;
     dcr = (swept + vc - cylinderCcRaw(B, above)) / vc;
@@ -400,7 +403,12 @@ function buildSteps(w: Work): Step[] {
   const fDeck = fin(s.deckClearanceMm);
   const fThick = fin(s.gasketThicknessMm);
 
-  if (r.sweptVolumeCc !== null && r.displacementCc !== null && r.displacementCi !== null && r.boreStrokeRatio !== null) {
+  if (
+    r.sweptVolumeCc !== null &&
+    r.displacementCc !== null &&
+    r.displacementCi !== null &&
+    r.boreStrokeRatio !== null
+  ) {
     steps.push(
       {
         id: "sweptVolume",
@@ -437,9 +445,23 @@ function buildSteps(w: Work): Step[] {
     );
   } else {
     steps.push(
-      pending("sweptVolume", "Swept volume, one cylinder", "V_d = (π/4) · B² · L", "cc", "sweptVolumeCc", rec),
+      pending(
+        "sweptVolume",
+        "Swept volume, one cylinder",
+        "V_d = (π/4) · B² · L",
+        "cc",
+        "sweptVolumeCc",
+        rec,
+      ),
       pending("displacement", "Displacement", "V = n · V_d", "cc", "displacementCc", rec),
-      pending("displacementCi", "Displacement in cubic inches", "V[ci] = V[cc] ÷ 16.387064", "ci", "displacementCi", rec),
+      pending(
+        "displacementCi",
+        "Displacement in cubic inches",
+        "V[ci] = V[cc] ÷ 16.387064",
+        "ci",
+        "displacementCi",
+        rec,
+      ),
       pending("boreStrokeRatio", "Bore/stroke ratio", "B / L", "", "boreStrokeRatio", rec),
     );
   }
@@ -461,7 +483,16 @@ function buildSteps(w: Work): Step[] {
       unit: "cc",
     });
   } else {
-    steps.push(pending("clearanceVolume", "Clearance volume at TDC", VC_FORMULA, "cc", "clearanceVolumeCc", rec));
+    steps.push(
+      pending(
+        "clearanceVolume",
+        "Clearance volume at TDC",
+        VC_FORMULA,
+        "cc",
+        "clearanceVolumeCc",
+        rec,
+      ),
+    );
   }
   if (r.staticCr !== null && r.sweptVolumeCc !== null) {
     steps.push({
@@ -473,7 +504,16 @@ function buildSteps(w: Work): Step[] {
       unit: ":1",
     });
   } else {
-    steps.push(pending("staticCr", "Static compression ratio", "r_c = (V_d + V_c) / V_c", ":1", "staticCr", rec));
+    steps.push(
+      pending(
+        "staticCr",
+        "Static compression ratio",
+        "r_c = (V_d + V_c) / V_c",
+        ":1",
+        "staticCr",
+        rec,
+      ),
+    );
   }
 
   if (r.dynamicCr !== null && L !== null && l !== null && s.intakeClosesAbdcDeg !== null) {
@@ -498,7 +538,14 @@ function buildSteps(w: Work): Step[] {
     );
   } else {
     steps.push(
-      pending("pistonAtIvc", "Piston below TDC when the intake closes", Y_FORMULA, "mm", "dynamicCr", rec),
+      pending(
+        "pistonAtIvc",
+        "Piston below TDC when the intake closes",
+        Y_FORMULA,
+        "mm",
+        "dynamicCr",
+        rec,
+      ),
       pending("dynamicCr", "Dynamic compression ratio", DCR_FORMULA, ":1", "dynamicCr", rec),
     );
   }
@@ -538,7 +585,14 @@ function buildSteps(w: Work): Step[] {
   } else {
     steps.push(
       pending("rodRatio", "Rod ratio (rod length / stroke)", "l / L", "", "rodRatio", rec),
-      pending("peakPistonSpeedCrankDeg", "Crank angle of peak piston speed", PEAK_ANGLE_FORMULA, "° after TDC", "peakPistonSpeedCrankDeg", rec),
+      pending(
+        "peakPistonSpeedCrankDeg",
+        "Crank angle of peak piston speed",
+        PEAK_ANGLE_FORMULA,
+        "° after TDC",
+        "peakPistonSpeedCrankDeg",
+        rec,
+      ),
     );
   }
 
@@ -552,9 +606,24 @@ function buildSteps(w: Work): Step[] {
       unit: "m/s",
     });
   } else {
-    steps.push(pending("meanPistonSpeed", "Mean piston speed at the rev limit", MEAN_FORMULA, "m/s", "meanPistonSpeedMs", rec));
+    steps.push(
+      pending(
+        "meanPistonSpeed",
+        "Mean piston speed at the rev limit",
+        MEAN_FORMULA,
+        "m/s",
+        "meanPistonSpeedMs",
+        rec,
+      ),
+    );
   }
-  if (r.peakPistonSpeedMs !== null && r.peakPistonSpeedCrankDeg !== null && L !== null && l !== null && rpm !== null) {
+  if (
+    r.peakPistonSpeedMs !== null &&
+    r.peakPistonSpeedCrankDeg !== null &&
+    L !== null &&
+    l !== null &&
+    rpm !== null
+  ) {
     steps.push({
       id: "peakPistonSpeed",
       label: "Peak piston speed at the rev limit",
@@ -564,7 +633,16 @@ function buildSteps(w: Work): Step[] {
       unit: "m/s",
     });
   } else {
-    steps.push(pending("peakPistonSpeed", "Peak piston speed at the rev limit", PEAK_FORMULA, "m/s", "peakPistonSpeedMs", rec));
+    steps.push(
+      pending(
+        "peakPistonSpeed",
+        "Peak piston speed at the rev limit",
+        PEAK_FORMULA,
+        "m/s",
+        "peakPistonSpeedMs",
+        rec,
+      ),
+    );
   }
   return steps;
 }

@@ -218,34 +218,69 @@ export function validateSpec(
   const skip = ignore !== undefined && ignore.length > 0;
   const get = skip ? (f: SpecField): unknown => (ignore.includes(f) ? undefined : src[f]) : null;
 
-  const boreMm = readNumber((get === null ? src.boreMm : get("boreMm")), "boreMm", KIND.boreMm, errors);
-  const strokeMm = readNumber((get === null ? src.strokeMm : get("strokeMm")), "strokeMm", KIND.strokeMm, errors);
-  const chamberCc = readNumber((get === null ? src.chamberCc : get("chamberCc")), "chamberCc", KIND.chamberCc, errors);
-  const gasketBoreMm = readNumber((get === null ? src.gasketBoreMm : get("gasketBoreMm")), "gasketBoreMm", KIND.gasketBoreMm, errors);
+  const boreMm = readNumber(
+    get === null ? src.boreMm : get("boreMm"),
+    "boreMm",
+    KIND.boreMm,
+    errors,
+  );
+  const strokeMm = readNumber(
+    get === null ? src.strokeMm : get("strokeMm"),
+    "strokeMm",
+    KIND.strokeMm,
+    errors,
+  );
+  const chamberCc = readNumber(
+    get === null ? src.chamberCc : get("chamberCc"),
+    "chamberCc",
+    KIND.chamberCc,
+    errors,
+  );
+  const gasketBoreMm = readNumber(
+    get === null ? src.gasketBoreMm : get("gasketBoreMm"),
+    "gasketBoreMm",
+    KIND.gasketBoreMm,
+    errors,
+  );
   const gasketThicknessMm = readNumber(
-    (get === null ? src.gasketThicknessMm : get("gasketThicknessMm")),
+    get === null ? src.gasketThicknessMm : get("gasketThicknessMm"),
     "gasketThicknessMm",
     KIND.gasketThicknessMm,
     errors,
   );
   const deckClearanceMm = readNumber(
-    (get === null ? src.deckClearanceMm : get("deckClearanceMm")),
+    get === null ? src.deckClearanceMm : get("deckClearanceMm"),
     "deckClearanceMm",
     KIND.deckClearanceMm,
     errors,
   );
-  const pistonDomeCc = readNumber((get === null ? src.pistonDomeCc : get("pistonDomeCc")), "pistonDomeCc", KIND.pistonDomeCc, errors);
-  const rodLengthMm = readNumber((get === null ? src.rodLengthMm : get("rodLengthMm")), "rodLengthMm", KIND.rodLengthMm, errors);
+  const pistonDomeCc = readNumber(
+    get === null ? src.pistonDomeCc : get("pistonDomeCc"),
+    "pistonDomeCc",
+    KIND.pistonDomeCc,
+    errors,
+  );
+  const rodLengthMm = readNumber(
+    get === null ? src.rodLengthMm : get("rodLengthMm"),
+    "rodLengthMm",
+    KIND.rodLengthMm,
+    errors,
+  );
   const intakeClosesAbdcDeg = readNumber(
-    (get === null ? src.intakeClosesAbdcDeg : get("intakeClosesAbdcDeg")),
+    get === null ? src.intakeClosesAbdcDeg : get("intakeClosesAbdcDeg"),
     "intakeClosesAbdcDeg",
     KIND.intakeClosesAbdcDeg,
     errors,
   );
-  const revLimitRpm = readNumber((get === null ? src.revLimitRpm : get("revLimitRpm")), "revLimitRpm", KIND.revLimitRpm, errors);
+  const revLimitRpm = readNumber(
+    get === null ? src.revLimitRpm : get("revLimitRpm"),
+    "revLimitRpm",
+    KIND.revLimitRpm,
+    errors,
+  );
 
   let cylinders = DEFAULT_CYLINDERS;
-  const rawCyl = (get === null ? src.cylinders : get("cylinders"));
+  const rawCyl = get === null ? src.cylinders : get("cylinders");
   if (rawCyl !== undefined && rawCyl !== null) {
     if (typeof rawCyl === "number" && Number.isSafeInteger(rawCyl) && rawCyl > 0) {
       cylinders = rawCyl;
@@ -307,7 +342,10 @@ export function validateSpec(
     pistonDomeCc !== null
   ) {
     const vc =
-      chamberCc + cyl(gasketBoreMm, gasketThicknessMm) + cyl(boreMm, deckClearanceMm) - pistonDomeCc;
+      chamberCc +
+      cyl(gasketBoreMm, gasketThicknessMm) +
+      cyl(boreMm, deckClearanceMm) -
+      pistonDomeCc;
     if (!(vc > 0 && Number.isFinite(vc))) {
       errors.push({
         field: "pistonDomeCc",

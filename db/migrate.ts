@@ -13,7 +13,11 @@ export async function migrate(url: string, direction: "latest" | "down" = "lates
   const db = createDb(url, 2);
   const migrator = new Migrator({
     db,
-    provider: new FileMigrationProvider({ fs, path, migrationFolder: path.join(here, "migrations") }),
+    provider: new FileMigrationProvider({
+      fs,
+      path,
+      migrationFolder: path.join(here, "migrations"),
+    }),
   });
   try {
     const { error, results } =

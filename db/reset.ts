@@ -8,10 +8,13 @@ import { migrate } from "./migrate";
 export async function resetDatabase(url: string) {
   const target = new URL(url);
   const name = decodeURIComponent(target.pathname.slice(1));
-  if (!/^[a-z0-9_]+$/.test(name)) throw new Error(`db: refusing to reset an oddly named database "${name}"`);
+  if (!/^[a-z0-9_]+$/.test(name))
+    throw new Error(`db: refusing to reset an oddly named database "${name}"`);
   const loopback = ["127.0.0.1", "localhost", "[::1]"].includes(target.hostname);
   if (!loopback && process.env.TW_ALLOW_RESET !== "1") {
-    throw new Error("db: refusing to reset a database that is not on this machine (set TW_ALLOW_RESET=1)");
+    throw new Error(
+      "db: refusing to reset a database that is not on this machine (set TW_ALLOW_RESET=1)",
+    );
   }
   const admin = new URL(url);
   admin.pathname = "/postgres";

@@ -21,7 +21,10 @@ export async function seed(db: Kysely<Database>) {
 }
 
 export async function isEmpty(db: Kysely<Database>) {
-  const row = await db.selectFrom("shop").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirst();
+  const row = await db
+    .selectFrom("shop")
+    .select((eb) => eb.fn.countAll<number>().as("n"))
+    .executeTakeFirst();
   return Number(row?.n ?? 0) === 0;
 }
 
@@ -35,7 +38,9 @@ if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.a
   const onlyIfEmpty = process.argv.includes("--if-empty");
   (async () => {
     if (!(await isEmpty(db))) {
-      console.log(onlyIfEmpty ? "db: demo data already present" : "db: not empty; run npm run db:reset first");
+      console.log(
+        onlyIfEmpty ? "db: demo data already present" : "db: not empty; run npm run db:reset first",
+      );
       if (!onlyIfEmpty) process.exitCode = 1;
       return;
     }

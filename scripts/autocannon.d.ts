@@ -5,8 +5,16 @@ declare module "autocannon" {
     path?: string;
     headers?: Record<string, string>;
     body?: string;
-    setupRequest?: (req: { path: string; body?: string; [k: string]: unknown }, context: Record<string, any>) => unknown;
-    onResponse?: (status: number, body: string, context: Record<string, any>, headers: Record<string, string>) => void;
+    setupRequest?: (
+      req: { path: string; body?: string; [k: string]: unknown },
+      context: Record<string, any>,
+    ) => unknown;
+    onResponse?: (
+      status: number,
+      body: string,
+      context: Record<string, any>,
+      headers: Record<string, string>,
+    ) => void;
   }
   export interface Options {
     url: string;
@@ -22,7 +30,10 @@ declare module "autocannon" {
     timeouts: number;
   }
   export interface Instance extends PromiseLike<Result> {
-    on(event: "response", fn: (client: unknown, status: number, bytes: number, ms: number) => void): void;
+    on(
+      event: "response",
+      fn: (client: unknown, status: number, bytes: number, ms: number) => void,
+    ): void;
   }
   export default function autocannon(options: Options): Instance;
 }

@@ -27,7 +27,7 @@ const HALF_FILLED: SpecInput = { boreMm: 101.6, strokeMm: 114.3 };
 
 let sink = 0;
 /** Reads the figures and every worked step's text, as a screen that shows the work does. */
-function use(r: SpecOutcome): void {
+function keep(r: SpecOutcome): void {
   if (r.ok) {
     sink += r.cautions.length + (r.results.staticCr ?? 0);
     for (const s of r.steps) sink += s.substituted.length;
@@ -36,11 +36,11 @@ function use(r: SpecOutcome): void {
 
 function measure(label: string, spec: SpecInput, options?: ComputeOptions): void {
   const batch = 10_000;
-  for (let i = 0; i < 50_000; i++) use(computeSpec(spec, options)); // warm-up
+  for (let i = 0; i < 50_000; i++) keep(computeSpec(spec, options)); // warm-up
   const perCall: number[] = [];
   for (let b = 0; b < 40; b++) {
     const t0 = process.hrtime.bigint();
-    for (let i = 0; i < batch; i++) use(computeSpec(spec, options));
+    for (let i = 0; i < batch; i++) keep(computeSpec(spec, options));
     const t1 = process.hrtime.bigint();
     perCall.push(Number(t1 - t0) / batch);
   }

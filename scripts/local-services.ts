@@ -22,7 +22,10 @@ async function main() {
   const started: Started[] = [];
   for (const start of starters) started.push(await start());
   const lines = started.map((s) => `services: ${s.name} on ${s.url}`);
-  writeFileSync(path.join(runDir, "services.ready"), (lines.join("\n") || "services: none configured") + "\n");
+  writeFileSync(
+    path.join(runDir, "services.ready"),
+    (lines.join("\n") || "services: none configured") + "\n",
+  );
   const stop = async () => {
     await Promise.allSettled(started.map((s) => s.stop()));
     process.exit(0);

@@ -28,7 +28,10 @@ async function main() {
   const app = express();
   app.disable("x-powered-by");
   app.use(compression());
-  app.use("/assets", express.static(path.join(clientDir, "assets"), { immutable: true, maxAge: "1y" }));
+  app.use(
+    "/assets",
+    express.static(path.join(clientDir, "assets"), { immutable: true, maxAge: "1y" }),
+  );
   app.use(express.static(clientDir, { maxAge: "1h" }));
   if (process.env.TW_ACCESS_LOG !== "0") app.use(morgan("tiny"));
   app.use(clientAddressMiddleware);
@@ -51,7 +54,9 @@ if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.me
     let stopping = false;
     cluster.on("exit", (worker, code) => {
       if (!stopping) {
-        console.error(`torquewright: worker ${worker.process.pid} stopped (${code}); starting another`);
+        console.error(
+          `torquewright: worker ${worker.process.pid} stopped (${code}); starting another`,
+        );
         cluster.fork();
       }
     });

@@ -12,7 +12,8 @@ if (existsSync(vitestFile)) {
   passed += v.numPassedTests ?? 0;
   failed += v.numFailedTests ?? 0;
   // a file that failed to load has no tests to count; it still counts as a failure
-  if ((v.numFailedTestSuites ?? 0) > 0 && (v.numFailedTests ?? 0) === 0) failed += v.numFailedTestSuites;
+  if ((v.numFailedTestSuites ?? 0) > 0 && (v.numFailedTests ?? 0) === 0)
+    failed += v.numFailedTestSuites;
 }
 const pwFile = path.join(dir, "playwright.json");
 if (existsSync(pwFile)) {

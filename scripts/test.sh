@@ -43,6 +43,11 @@ step() { echo ""; echo "== $1"; }
 step "typecheck"
 if ! npm run -s typecheck; then echo "typecheck failed"; status=1; fi
 
+step "lint and format"
+if ! npx eslint . || ! npx prettier --check . >/dev/null; then
+  npx prettier --check . 2>&1 | tail -20; echo "lint or format failed"; status=1
+fi
+
 step "vitest (unit and integration)"
 npx vitest run --reporter=default --reporter=json --outputFile.json="$RESULTS/vitest.json" || status=1
 

@@ -3,7 +3,9 @@ import { z } from "zod";
 // Environment variables are read once, here. Only PUBLIC_ENV reaches the browser.
 const EnvSchema = z.object({
   NODE_ENV: z.enum(["development", "production", "test"]).default("production"),
-  DATABASE_URL: z.string().min(1, "DATABASE_URL is required (npm start sets it for the local server)"),
+  DATABASE_URL: z
+    .string()
+    .min(1, "DATABASE_URL is required (npm start sets it for the local server)"),
   DATABASE_POOL_MAX: z.coerce.number().int().positive().default(10),
   APP_URL: z.string().url().default("http://127.0.0.1:3000"),
   // Signs the session cookie and the invite/reset links. The local default is made
@@ -11,7 +13,10 @@ const EnvSchema = z.object({
   SESSION_SECRET: z.string().min(32, "SESSION_SECRET must be at least 32 characters"),
   // X-Forwarded-For is believed only behind a proxy we run.
   TRUST_PROXY: z.enum(["0", "1"]).default("0"),
-  SMTP_URL: z.string().url().default(`smtp://127.0.0.1:${process.env.TW_SMTP_PORT ?? "2526"}`),
+  SMTP_URL: z
+    .string()
+    .url()
+    .default(`smtp://127.0.0.1:${process.env.TW_SMTP_PORT ?? "2526"}`),
   MAIL_FROM: z.string().default("Tallgrass Twin Works <shop@tallgrass.test>"),
   // Set only when the local mail catcher runs; turns on /dev/outbox.
   LOCAL_MAIL_API_URL: z.string().url().optional(),
@@ -27,7 +32,8 @@ let cached: Env | undefined;
 export function env(): Env {
   if (!cached) {
     const source = { ...process.env };
-    if (source.NODE_ENV === "test" && !source.SESSION_SECRET) source.SESSION_SECRET = "test-only-session-secret-0123456789abcdef";
+    if (source.NODE_ENV === "test" && !source.SESSION_SECRET)
+      source.SESSION_SECRET = "test-only-session-secret-0123456789abcdef";
     const parsed = EnvSchema.safeParse(source);
     if (!parsed.success) {
       const problems = parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`);

@@ -1,13 +1,17 @@
 // What each role's home shows: counts from what the shop keeps, each linking to its list.
-import type { SessionUser } from "./auth.server";
+import type { SessionUser } from "./auth/auth.server";
 import type { Db } from "./db.server";
-import { can } from "./permissions";
+import { can } from "./auth/permissions";
 
 export type HomeStat = { label: string; value: number; to?: string; note?: string };
 
 const count = (n: { n: number | string } | undefined) => Number(n?.n ?? 0);
 
-export async function homeStats(db: Db, user: SessionUser, now = new Date()): Promise<{ stats: HomeStat[]; statuses: { status: string; n: number }[] }> {
+export async function homeStats(
+  db: Db,
+  user: SessionUser,
+  now = new Date(),
+): Promise<{ stats: HomeStat[]; statuses: { status: string; n: number }[] }> {
   const stats: HomeStat[] = [];
   let statuses: { status: string; n: number }[] = [];
 
@@ -32,22 +36,43 @@ export async function homeStats(db: Db, user: SessionUser, now = new Date()): Pr
   }
   if (can(user.role, "customers:read")) {
     const [customers, bikes] = await Promise.all([
-      db.selectFrom("customers").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirst(),
-      db.selectFrom("bikes").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirst(),
+      db
+        .selectFrom("customers")
+        .select((eb) => eb.fn.countAll<number>().as("n"))
+        .executeTakeFirst(),
+      db
+        .selectFrom("bikes")
+        .select((eb) => eb.fn.countAll<number>().as("n"))
+        .executeTakeFirst(),
     ]);
-    stats.push({ label: "Customers on file", value: count(customers) }, { label: "Bikes on file", value: count(bikes) });
+    stats.push(
+      { label: "Customers on file", value: count(customers) },
+      { label: "Bikes on file", value: count(bikes) },
+    );
   }
   if (can(user.role, "parts:read")) {
-    const parts = await db.selectFrom("parts").where("archived_at", "is", null).select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirst();
+    const parts = await db
+      .selectFrom("parts")
+      .where("archived_at", "is", null)
+      .select((eb) => eb.fn.countAll<number>().as("n"))
+      .executeTakeFirst();
     stats.push({ label: "Parts on the shelf", value: count(parts), to: "/parts" });
   }
   if (can(user.role, "rules:read")) {
-    const rules = await db.selectFrom("fit_rules").where("active", "=", true).select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirst();
+    const rules = await db
+      .selectFrom("fit_rules")
+      .where("active", "=", true)
+      .select((eb) => eb.fn.countAll<number>().as("n"))
+      .executeTakeFirst();
     stats.push({ label: "Active fit rules", value: count(rules), to: "/rules" });
   }
   if (can(user.role, "staff:manage")) {
     const [staff, invites] = await Promise.all([
-      db.selectFrom("users").where("disabled_at", "is", null).select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirst(),
+      db
+        .selectFrom("users")
+        .where("disabled_at", "is", null)
+        .select((eb) => eb.fn.countAll<number>().as("n"))
+        .executeTakeFirst(),
       db
         .selectFrom("auth_tokens")
         .where("kind", "=", "invite")
@@ -57,7 +82,12 @@ export async function homeStats(db: Db, user: SessionUser, now = new Date()): Pr
         .select((eb) => eb.fn.countAll<number>().as("n"))
         .executeTakeFirst(),
     ]);
-    stats.push({ label: "Active staff", value: count(staff), to: "/staff", note: count(invites) ? `${count(invites)} invite(s) pending` : undefined });
+    stats.push({
+      label: "Active staff",
+      value: count(staff),
+      to: "/staff",
+      note: count(invites) ? `${count(invites)} invite(s) pending` : undefined,
+    });
   }
   return { stats, statuses };
 }

@@ -3,7 +3,11 @@ import type { UnitSystem } from "../../db/schema/packages";
 import type { Db } from "./db.server";
 
 export async function getUnits(db: Db, userId: number): Promise<UnitSystem> {
-  const row = await db.selectFrom("user_preferences").select("units").where("user_id", "=", userId).executeTakeFirst();
+  const row = await db
+    .selectFrom("user_preferences")
+    .select("units")
+    .where("user_id", "=", userId)
+    .executeTakeFirst();
   return row?.units ?? "inch";
 }
 

@@ -1,8 +1,8 @@
 import type { Route } from "./+types/api.packages.$id";
-import { requireApiPermission } from "~/lib/api-auth.server";
+import { requireApiPermission } from "~/lib/auth/api.server";
 import { getDb } from "~/lib/db.server";
-import { can } from "~/lib/permissions";
-import { getBenchState, getPackageHeader } from "~/lib/packages.server";
+import { can } from "~/lib/auth/permissions";
+import { getBenchState, getPackageHeader } from "~/lib/packages/store.server";
 
 // GET /api/packages/:id — the package with its current revision's figures and findings.
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -10,8 +10,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const db = getDb();
   const id = Number(params.id);
   const header = Number.isInteger(id) && id > 0 ? await getPackageHeader(db, id) : null;
-  const state = header ? await getBenchState(db, id, can(user.role, "prices:read"), { triggeredBy: true }) : null;
-  if (!header || !state) return Response.json({ error: "No package with this number." }, { status: 404 });
+  const state = header
+    ? await getBenchState(db, id, can(user.role, "prices:read"), { triggeredBy: true })
+    : null;
+  if (!header || !state)
+    return Response.json({ error: "No package with this number." }, { status: 404 });
   const { computation, findings, spec, parts, revision, savedAt, savedBy } = state;
   return Response.json(
     {

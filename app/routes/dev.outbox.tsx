@@ -1,8 +1,8 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/dev.outbox";
 import { PageHeader } from "~/components/ui/page-header";
-import { requirePermission } from "~/lib/auth.server";
-import { fetchOutbox, requireLocalMail, type OutboxSummary } from "~/lib/outbox.server";
+import { requirePermission } from "~/lib/auth/auth.server";
+import { fetchOutbox, requireLocalMail, type OutboxSummary } from "~/lib/mail/outbox.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const base = requireLocalMail();
@@ -11,19 +11,33 @@ export async function loader({ request }: Route.LoaderArgs) {
   return res.ok ? { messages: res.value, problem: null } : { messages: [], problem: res.reason };
 }
 
-const timeFmt = new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeStyle: "medium", timeZone: "UTC" });
+const timeFmt = new Intl.DateTimeFormat("en-US", {
+  dateStyle: "medium",
+  timeStyle: "medium",
+  timeZone: "UTC",
+});
 
 export default function Outbox({ loaderData }: Route.ComponentProps) {
   const { messages, problem } = loaderData;
   return (
     <main className="mx-auto max-w-5xl px-4 py-8">
-      <PageHeader eyebrow="Local mail server" title="Outbox" lead="Every e-mail the app sent while running on this machine. Nothing here left the machine." />
+      <PageHeader
+        eyebrow="Local mail server"
+        title="Outbox"
+        lead="Every e-mail the app sent while running on this machine. Nothing here left the machine."
+      />
       {problem ? (
-        <p role="alert" className="mt-6 rounded border border-amber bg-white px-3 py-2 text-amber-text">
-          The local mail server cannot be reached ({problem}). Mail waits in the queue and goes out when it is back.
+        <p
+          role="alert"
+          className="mt-6 rounded border border-amber bg-white px-3 py-2 text-amber-text"
+        >
+          The local mail server cannot be reached ({problem}). Mail waits in the queue and goes out
+          when it is back.
         </p>
       ) : messages.length === 0 ? (
-        <p className="mt-6 rounded border border-steel-200 bg-white p-4 text-steel-700">No e-mail has been sent yet.</p>
+        <p className="mt-6 rounded border border-steel-200 bg-white p-4 text-steel-700">
+          No e-mail has been sent yet.
+        </p>
       ) : (
         <table className="mt-6 w-full border-collapse overflow-hidden rounded border border-steel-200 bg-white text-left text-sm">
           <thead className="bg-steel-100 text-steel-700">
@@ -36,7 +50,9 @@ export default function Outbox({ loaderData }: Route.ComponentProps) {
           <tbody>
             {messages.map((m) => (
               <tr key={m.id} className="border-t border-steel-100">
-                <td className="num whitespace-nowrap px-3 py-2 text-steel-700">{timeFmt.format(new Date(m.receivedAt))}</td>
+                <td className="num whitespace-nowrap px-3 py-2 text-steel-700">
+                  {timeFmt.format(new Date(m.receivedAt))}
+                </td>
                 <td className="px-3 py-2">{m.to.join(", ")}</td>
                 <td className="px-3 py-2">
                   <Link to={`/dev/outbox/${m.id}`} className="font-medium text-teal-text underline">

@@ -1,18 +1,23 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/home";
-import { navFor } from "~/components/app-header";
-import { requireUser } from "~/lib/auth.server";
+import { navFor } from "~/components/shell/app-header";
+import { requireUser } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
 import { env } from "~/lib/env.server";
 import { homeStats, type HomeStat } from "~/lib/home.server";
-import { ROLE_LABELS } from "~/lib/permissions";
+import { ROLE_LABELS } from "~/lib/auth/permissions";
 import { getShopOverview } from "~/lib/shop.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const db = getDb();
-  const [{ shop }, { stats, statuses }] = await Promise.all([getShopOverview(db), homeStats(db, user)]);
-  const links = navFor(user.role, { localMail: Boolean(env().LOCAL_MAIL_API_URL) }).filter((l) => l.to !== "/");
+  const [{ shop }, { stats, statuses }] = await Promise.all([
+    getShopOverview(db),
+    homeStats(db, user),
+  ]);
+  const links = navFor(user.role, { localMail: Boolean(env().LOCAL_MAIL_API_URL) }).filter(
+    (l) => l.to !== "/",
+  );
   return { shop, user, stats, statuses, links };
 }
 
@@ -38,7 +43,9 @@ export default function Home({ loaderData }: Route.ComponentProps) {
   const { shop, user, stats, statuses, links } = loaderData;
   return (
     <main className="mx-auto max-w-7xl px-4 py-8">
-      <p className="text-sm font-semibold uppercase tracking-widest text-steel-700">Engine program</p>
+      <p className="text-sm font-semibold uppercase tracking-widest text-steel-700">
+        Engine program
+      </p>
       <h1 className="mt-1 text-3xl font-semibold text-ink">{shop?.name ?? "Your shop"}</h1>
       {shop ? <p className="mt-1 text-steel-700">{shop.city}</p> : null}
       <p className="mt-4 text-lg text-graphite">
@@ -53,13 +60,17 @@ export default function Home({ loaderData }: Route.ComponentProps) {
       ) : null}
       {statuses.length > 0 ? (
         <section aria-labelledby="by-status" className="mt-8">
-          <h2 id="by-status" className="text-lg font-semibold text-ink">Packages by status</h2>
+          <h2 id="by-status" className="text-lg font-semibold text-ink">
+            Packages by status
+          </h2>
           <ul className="mt-2 flex flex-wrap gap-2">
             {[...statuses]
               .sort((a, b) => STATUS_ORDER.indexOf(a.status) - STATUS_ORDER.indexOf(b.status))
               .map((s) => (
                 <li key={s.status} className="rounded border border-steel-200 bg-white px-4 py-2">
-                  <span className="text-sm text-steel-700">{STATUS_LABELS[s.status] ?? s.status}</span>{" "}
+                  <span className="text-sm text-steel-700">
+                    {STATUS_LABELS[s.status] ?? s.status}
+                  </span>{" "}
                   <span className="num text-lg font-semibold text-ink">{s.n}</span>
                 </li>
               ))}
@@ -68,11 +79,16 @@ export default function Home({ loaderData }: Route.ComponentProps) {
       ) : null}
       {links.length > 0 ? (
         <section aria-labelledby="open" className="mt-8">
-          <h2 id="open" className="text-lg font-semibold text-ink">Open</h2>
+          <h2 id="open" className="text-lg font-semibold text-ink">
+            Open
+          </h2>
           <ul className="mt-2 flex flex-wrap gap-2">
             {links.map((l) => (
               <li key={l.to}>
-                <Link to={l.to} className="inline-block rounded border border-steel-200 bg-white px-4 py-2 font-medium text-teal-text hover:border-teal">
+                <Link
+                  to={l.to}
+                  className="inline-block rounded border border-steel-200 bg-white px-4 py-2 font-medium text-teal-text hover:border-teal"
+                >
                   {l.label}
                 </Link>
               </li>

@@ -4,17 +4,17 @@ import { useState } from "react";
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/login";
-import { AuthCard } from "~/components/auth-form";
+import { AuthCard } from "~/components/auth/auth-form";
 import { FormAlert, formErrorsOf } from "~/components/ui/alert";
 import { SubmitButton } from "~/components/ui/button";
 import { TextField } from "~/components/ui/field";
-import { authenticator, getUser, safeRedirect, SignInError } from "~/lib/auth.server";
+import { authenticator, getUser, safeRedirect, SignInError } from "~/lib/auth/auth.server";
 import { Honeypot } from "~/components/ui/honeypot";
 import { getDb } from "~/lib/db.server";
-import { FORM_NOT_FROM_PAGE } from "~/lib/honeypot";
-import { honeypotStamp, trippedHoneypot } from "~/lib/honeypot.server";
-import { requireSameOrigin } from "~/lib/origin.server";
-import { createSession } from "~/lib/session.server";
+import { FORM_NOT_FROM_PAGE } from "~/lib/auth/honeypot";
+import { honeypotStamp, trippedHoneypot } from "~/lib/auth/honeypot.server";
+import { requireSameOrigin } from "~/lib/auth/origin.server";
+import { createSession } from "~/lib/auth/session.server";
 
 export const LoginSchema = z.object({
   email: z.email("Enter the e-mail address of your staff account."),
@@ -37,11 +37,17 @@ export async function action({ request }: Route.ActionArgs) {
     return data({ result: submission.reply({ hideFields: ["password"] }) }, { status: 400 });
   }
   // a script, not a person: no password is checked
-  if (trippedHoneypot(formData)) return data({ result: submission.reply({ formErrors: [FORM_NOT_FROM_PAGE], hideFields: ["password"] }) }, { status: 400 });
+  if (trippedHoneypot(formData))
+    return data(
+      { result: submission.reply({ formErrors: [FORM_NOT_FROM_PAGE], hideFields: ["password"] }) },
+      { status: 400 },
+    );
   try {
     const user = await authenticator.authenticate("password", request);
     const setCookie = await createSession(getDb(), user.id);
-    return redirect(safeRedirect(submission.value.redirectTo), { headers: { "Set-Cookie": setCookie } });
+    return redirect(safeRedirect(submission.value.redirectTo), {
+      headers: { "Set-Cookie": setCookie },
+    });
   } catch (e) {
     if (!(e instanceof SignInError)) throw e;
     const result = submission.reply({ formErrors: [e.message], hideFields: ["password"] });
@@ -69,12 +75,21 @@ export default function Login({ loaderData, actionData }: Route.ComponentProps) 
     setAttempt(attempt + 1);
   }
   return (
-    <AuthCard title="Sign in" lead="Staff accounts of the shop. Customers open the link in their quote e-mail instead.">
+    <AuthCard
+      title="Sign in"
+      lead="Staff accounts of the shop. Customers open the link in their quote e-mail instead."
+    >
       <Form method="post" {...getFormProps(form)} className="space-y-4">
         <FormAlert id={form.errorId} errors={formErrorsOf(form, actionData?.result)} />
         <input type="hidden" name="redirectTo" value={params.get("redirectTo") ?? ""} />
         <Honeypot stamp={loaderData.stamp} />
-        <TextField label="E-mail" field={fields.email} type="email" autoComplete="username" autoFocus={attempt === 0} />
+        <TextField
+          label="E-mail"
+          field={fields.email}
+          type="email"
+          autoComplete="username"
+          autoFocus={attempt === 0}
+        />
         <div key={attempt}>
           <TextField
             label="Password"
@@ -84,7 +99,9 @@ export default function Login({ loaderData, actionData }: Route.ComponentProps) 
             autoFocus={attempt > 0}
           />
         </div>
-        <SubmitButton wide busy={navigation.state !== "idle"}>Sign in</SubmitButton>
+        <SubmitButton wide busy={navigation.state !== "idle"}>
+          Sign in
+        </SubmitButton>
       </Form>
       <p className="mt-4 text-sm">
         <Link to="/reset" className="font-medium text-teal-text underline">

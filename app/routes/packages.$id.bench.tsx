@@ -1,16 +1,27 @@
-import { DndContext, DragOverlay, KeyboardSensor, MouseSensor, TouchSensor, useSensor, useSensors, type Announcements, type DragEndEvent, type KeyboardCoordinateGetter } from "@dnd-kit/core";
+import {
+  DndContext,
+  DragOverlay,
+  KeyboardSensor,
+  MouseSensor,
+  TouchSensor,
+  useSensor,
+  useSensors,
+  type Announcements,
+  type DragEndEvent,
+  type KeyboardCoordinateGetter,
+} from "@dnd-kit/core";
 import { useState } from "react";
 import { data, Link, useFetcher, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/packages.$id.bench";
-import { requireRole } from "~/lib/auth.server";
+import { requireRole } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
-import { can } from "~/lib/permissions";
-import { EDITABLE_STATUSES, resolveFields, toCalcInput, type BenchPart } from "~/lib/bench";
-import { runBenchAction } from "~/lib/bench-action.server";
-import { useBenchQueue } from "~/lib/bench-queue";
-import { getBenchState, getPackageHeader, slotOptions } from "~/lib/packages.server";
+import { can } from "~/lib/auth/permissions";
+import { EDITABLE_STATUSES, resolveFields, toCalcInput, type BenchPart } from "~/lib/bench/spec";
+import { runBenchAction } from "~/lib/bench/action.server";
+import { useBenchQueue } from "~/lib/bench/queue";
+import { getBenchState, getPackageHeader, slotOptions } from "~/lib/packages/store.server";
 import { getUnits, setUnits } from "~/lib/units-pref.server";
-import { SLOTS, SLOT_BY_KEY } from "~/lib/slots";
+import { SLOTS, SLOT_BY_KEY } from "~/lib/packages/slots";
 import { inToMm } from "../../calc";
 import { EngineSection } from "~/components/bench/engine-section";
 import { PartCardBody, PartsShelf } from "~/components/bench/parts-shelf";
@@ -27,7 +38,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const header = Number.isInteger(id) ? await getPackageHeader(db, id) : null;
   if (!header) throw data("No package with this number.", { status: 404 });
   const prices = can(user.role, "prices:read");
-  const [state, options, units] = await Promise.all([getBenchState(db, id, prices), slotOptions(db, prices), getUnits(db, user.id)]);
+  const [state, options, units] = await Promise.all([
+    getBenchState(db, id, prices),
+    slotOptions(db, prices),
+    getUnits(db, user.id),
+  ]);
   if (!state) throw data("No package with this number.", { status: 404 });
   const canEdit = can(user.role, "packages:edit") && EDITABLE_STATUSES.includes(header.status);
   return { header, state, options, units, canEdit };
@@ -45,7 +60,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   return runBenchAction(getDb(), user, Number(params.id), form);
 }
 
-export function shouldRevalidate({ formMethod, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
+export function shouldRevalidate({
+  formMethod,
+  defaultShouldRevalidate,
+}: ShouldRevalidateFunctionArgs) {
   // the action answers with the whole bench state; reloading it would only cost time
   return formMethod === "POST" ? false : defaultShouldRevalidate;
 }
@@ -92,34 +110,57 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
   );
   const fields = resolveFields(bench.spec, bench.parts);
 
-  const post = (fields: Record<string, string>, intent: Parameters<typeof bench.submit>[0]["intent"], key: string) => bench.submit({ fields, intent, key });
+  const post = (
+    fields: Record<string, string>,
+    intent: Parameters<typeof bench.submit>[0]["intent"],
+    key: string,
+  ) => bench.submit({ fields, intent, key });
   const actions: SlotActions = {
-    pick: (slot, partId) => post({ intent: "set-part", slot, partId: String(partId) }, { intent: "set-part", slot, partId }, slot),
+    pick: (slot, partId) =>
+      post(
+        { intent: "set-part", slot, partId: String(partId) },
+        { intent: "set-part", slot, partId },
+        slot,
+      ),
     clear: (slot) => post({ intent: "clear-slot", slot }, { intent: "clear-slot", slot }, slot),
     measure: (slot, field, text) => {
       const isLength = !field.endsWith("Cc") && field !== "intakeClosesAbdcDeg";
-      const unit = isLength && units === "inch" ? "in" : isLength ? "mm" : field.endsWith("Cc") ? "cc" : "deg";
+      const unit =
+        isLength && units === "inch" ? "in" : isLength ? "mm" : field.endsWith("Cc") ? "cc" : "deg";
       const n = Number(text.trim().replace(",", "."));
       const value = unit === "in" ? inToMm(n) : n;
       const ok = text.trim() !== "" && Number.isFinite(n);
-      post({ intent: "set-measured", slot, field, value: text, unit }, ok ? { intent: "set-measured", slot, field, value } : null, `${slot}.${field}`);
+      post(
+        { intent: "set-measured", slot, field, value: text, unit },
+        ok ? { intent: "set-measured", slot, field, value } : null,
+        `${slot}.${field}`,
+      );
     },
-    revert: (slot, field) => post({ intent: "revert-measured", slot, field }, { intent: "revert-measured", slot, field }, `${slot}.${field}`),
+    revert: (slot, field) =>
+      post(
+        { intent: "revert-measured", slot, field },
+        { intent: "revert-measured", slot, field },
+        `${slot}.${field}`,
+      ),
   };
 
   const partName = (id: string | number | undefined) => {
     const p = typeof id === "string" ? bench.parts.get(Number(id.replace("part-", ""))) : undefined;
     return p ? `${p.name} (${p.partNumber})` : "the part";
   };
-  const slotName = (id: string | number | undefined) => SLOT_BY_KEY[String(id ?? "").replace("slot-", "")]?.label.toLowerCase() ?? "nowhere";
+  const slotName = (id: string | number | undefined) =>
+    SLOT_BY_KEY[String(id ?? "").replace("slot-", "")]?.label.toLowerCase() ?? "nowhere";
   const fitsSlot = (activeId: string | number, overId: string | number) => {
     const p = bench.parts.get(Number(String(activeId).replace("part-", "")));
     return p?.category === SLOT_BY_KEY[String(overId).replace("slot-", "")]?.category;
   };
   const announcements: Announcements = {
-    onDragStart: ({ active }) => `Picked up ${partName(active.id)}. Use the arrow keys to move to a slot it fits, Space to drop, Escape to cancel.`,
+    onDragStart: ({ active }) =>
+      `Picked up ${partName(active.id)}. Use the arrow keys to move to a slot it fits, Space to drop, Escape to cancel.`,
     onDragOver: ({ active, over }) =>
-      over ? `${partName(active.id)} is over the ${slotName(over.id)} slot${fitsSlot(active.id, over.id) ? "" : ", which it does not fit"}.` : `${partName(active.id)} is not over a slot.`,
+      over
+        ? `${partName(active.id)} is over the ${slotName(over.id)} slot${fitsSlot(active.id, over.id) ? "" : ", which it does not fit"}.`
+        : `${partName(active.id)} is not over a slot.`,
     onDragEnd: ({ active, over }) =>
       over && fitsSlot(active.id, over.id)
         ? `${partName(active.id)} placed in the ${slotName(over.id)} slot. Figures updated.`
@@ -162,9 +203,18 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
       <div className="mb-3 flex flex-wrap items-baseline gap-x-4 gap-y-1">
         <h1 className="text-2xl font-semibold text-ink">Spec bench · {header.name}</h1>
         <p className="text-sm text-steel-700">
-          {header.isTemplate ? "Shop template" : `${header.customerName ?? ""} · ${header.bikeLabel ?? ""}`} · {header.status.replace("_", " ")} ·{" "}
-          <span className="num" data-testid="revision">revision {bench.base.revision}</span>
-          {bench.pending ? <span className="ml-2 text-teal-text">saving…</span> : <span className="ml-2">saved by {bench.base.savedBy ?? "—"}</span>}
+          {header.isTemplate
+            ? "Shop template"
+            : `${header.customerName ?? ""} · ${header.bikeLabel ?? ""}`}{" "}
+          · {header.status.replace("_", " ")} ·{" "}
+          <span className="num" data-testid="revision">
+            revision {bench.base.revision}
+          </span>
+          {bench.pending ? (
+            <span className="ml-2 text-teal-text">saving…</span>
+          ) : (
+            <span className="ml-2">saved by {bench.base.savedBy ?? "—"}</span>
+          )}
         </p>
         <Link to={`/packages/${header.id}`} className="text-sm text-teal-text underline">
           Overview and revisions
@@ -172,11 +222,27 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
       </div>
       {!canEdit ? (
         <p className="mb-3 rounded border border-steel-200 bg-white p-2 text-sm text-steel-700">
-          {EDITABLE_STATUSES.includes(header.status) ? "Your role reads packages; builders change them." : "This package's spec is locked at its status; move it back to draft to change it."}
+          {EDITABLE_STATUSES.includes(header.status)
+            ? "Your role reads packages; builders change them."
+            : "This package's spec is locked at its status; move it back to draft to change it."}
         </p>
       ) : null}
-      {bench.errors.form ? <p role="alert" className="mb-3 rounded border border-red bg-white p-2 text-sm text-red-text">{bench.errors.form.join(" ")}</p> : null}
-      {bench.conflict ? <StaleNotice info={bench.conflict.info} mine={bench.conflict.mine.length} onApply={bench.applyMineOnTop} onDiscard={bench.discardMine} /> : null}
+      {bench.errors.form ? (
+        <p
+          role="alert"
+          className="mb-3 rounded border border-red bg-white p-2 text-sm text-red-text"
+        >
+          {bench.errors.form.join(" ")}
+        </p>
+      ) : null}
+      {bench.conflict ? (
+        <StaleNotice
+          info={bench.conflict.info}
+          mine={bench.conflict.mine.length}
+          onApply={bench.applyMineOnTop}
+          onDiscard={bench.discardMine}
+        />
+      ) : null}
       <DndContext
         sensors={sensors}
         accessibility={{ announcements }}
@@ -184,7 +250,12 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
         onDragCancel={() => setDragging(null)}
         onDragEnd={onDragEnd}
       >
-        <BenchSummary computation={bench.computation} findings={bench.base.findings} units={units} pending={bench.pending} />
+        <BenchSummary
+          computation={bench.computation}
+          findings={bench.base.findings}
+          units={units}
+          pending={bench.pending}
+        />
         {/* on a phone: engine slots and numbers, then the results and findings, then the chassis,
             then the shelf (every slot also has its pick-list); the middle column's parts join
             the one-column grid there (display: contents) so the results can sit between them */}
@@ -193,40 +264,82 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
             <PartsShelf onParts={bench.remember} canEdit={canEdit} />
           </div>
           <div className="contents lg:flex lg:flex-col lg:gap-4">
-            <section aria-label="Engine slots" className="order-1 grid grid-cols-1 gap-2 rounded border border-steel-200 bg-steel-100 p-2 sm:grid-cols-[minmax(0,1fr)_auto_minmax(0,1fr)] lg:order-none">
-              <div className="flex flex-col gap-2">{["head", "gasket", "cylinder", "rod"].map(slotCard)}</div>
-              <div className="order-first flex justify-center sm:order-none">
-                <EngineSection fields={fields} deckClearanceMm={bench.spec.deckClearanceMm} units={units} />
+            <section
+              aria-label="Engine slots"
+              className="order-1 grid grid-cols-1 gap-2 rounded border border-steel-200 bg-steel-100 p-2 sm:grid-cols-[minmax(0,1fr)_auto_minmax(0,1fr)] lg:order-none"
+            >
+              <div className="flex flex-col gap-2">
+                {["head", "gasket", "cylinder", "rod"].map(slotCard)}
               </div>
-              <div className="flex flex-col gap-2">{["cam", "springs", "piston", "flywheel"].map(slotCard)}</div>
+              <div className="order-first flex justify-center sm:order-none">
+                <EngineSection
+                  fields={fields}
+                  deckClearanceMm={bench.spec.deckClearanceMm}
+                  units={units}
+                />
+              </div>
+              <div className="flex flex-col gap-2">
+                {["cam", "springs", "piston", "flywheel"].map(slotCard)}
+              </div>
             </section>
             <div className="order-2 lg:order-none">
-              <PackageNumbers spec={bench.spec} units={units} errors={bench.errors} canEdit={canEdit} submit={bench.submit} />
+              <PackageNumbers
+                spec={bench.spec}
+                units={units}
+                errors={bench.errors}
+                canEdit={canEdit}
+                submit={bench.submit}
+              />
             </div>
-            <section aria-label="Chassis slots" className="order-4 rounded border border-steel-200 bg-white p-2 lg:order-none">
-              <h2 className="mb-2 text-sm font-semibold uppercase tracking-wider text-steel-700">Chassis</h2>
-              <div className="grid grid-cols-1 gap-2 sm:grid-cols-2 xl:grid-cols-4">{SLOTS.filter((s) => s.group === "chassis").map((s) => slotCard(s.key))}</div>
+            <section
+              aria-label="Chassis slots"
+              className="order-4 rounded border border-steel-200 bg-white p-2 lg:order-none"
+            >
+              <h2 className="mb-2 text-sm font-semibold uppercase tracking-wider text-steel-700">
+                Chassis
+              </h2>
+              <div className="grid grid-cols-1 gap-2 sm:grid-cols-2 xl:grid-cols-4">
+                {SLOTS.filter((s) => s.group === "chassis").map((s) => slotCard(s.key))}
+              </div>
             </section>
           </div>
           <div className="order-3 lg:order-none">
-          <ResultsPanel
-            computation={bench.computation}
-            input={toCalcInput(bench.spec, fields)}
-            findings={bench.base.findings}
-            findingsStale={bench.pending}
-            units={units}
-            onUnits={changeUnits}
-            parts={bench.parts}
-            fields={fields}
-            deckClearanceMm={bench.spec.deckClearanceMm}
-            revLimitRpm={bench.spec.revLimitRpm}
-            canEdit={canEdit}
-            onUseSuggested={(slot, id) => actions.pick(slot, id)}
-            onUseSolved={(slot, field, value) => post({ intent: "set-measured", slot, field, value: String(value), unit: field === "gasketThicknessMm" ? "mm" : "cc" }, { intent: "set-measured", slot, field, value }, `${slot}.${field}`)}
-          />
+            <ResultsPanel
+              computation={bench.computation}
+              input={toCalcInput(bench.spec, fields)}
+              findings={bench.base.findings}
+              findingsStale={bench.pending}
+              units={units}
+              onUnits={changeUnits}
+              parts={bench.parts}
+              fields={fields}
+              deckClearanceMm={bench.spec.deckClearanceMm}
+              revLimitRpm={bench.spec.revLimitRpm}
+              canEdit={canEdit}
+              onUseSuggested={(slot, id) => actions.pick(slot, id)}
+              onUseSolved={(slot, field, value) =>
+                post(
+                  {
+                    intent: "set-measured",
+                    slot,
+                    field,
+                    value: String(value),
+                    unit: field === "gasketThicknessMm" ? "mm" : "cc",
+                  },
+                  { intent: "set-measured", slot, field, value },
+                  `${slot}.${field}`,
+                )
+              }
+            />
           </div>
         </div>
-        <DragOverlay>{dragging ? <div className="w-64 rounded border border-teal bg-white px-2 py-1.5 text-sm shadow-lg"><PartCardBody part={dragging} category={dragging.category} /></div> : null}</DragOverlay>
+        <DragOverlay>
+          {dragging ? (
+            <div className="w-64 rounded border border-teal bg-white px-2 py-1.5 text-sm shadow-lg">
+              <PartCardBody part={dragging} category={dragging.category} />
+            </div>
+          ) : null}
+        </DragOverlay>
       </DndContext>
     </main>
   );
@@ -235,4 +348,3 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
 export function meta({ data }: Route.MetaArgs) {
   return [{ title: `Spec bench · ${data?.header.name ?? "Package"} · Torquewright` }];
 }
-

@@ -3,15 +3,51 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/packages.new";
-import { requirePermission } from "~/lib/auth.server";
+import { requirePermission } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
-import { createPackage } from "~/lib/packages.server";
+import { createPackage } from "~/lib/packages/store.server";
 
 const NewPackageSchema = z.discriminatedUnion("mode", [
-  z.object({ mode: z.literal("scratch"), name: z.string({ error: "Give the package a name" }).trim().min(2, "Give the package a name").max(120), bikeId: z.coerce.number({ error: "Pick the bike" }).int().positive("Pick the bike") }),
-  z.object({ mode: z.literal("template"), name: z.string({ error: "Give the package a name" }).trim().min(2, "Give the package a name").max(120), bikeId: z.coerce.number({ error: "Pick the bike" }).int().positive("Pick the bike"), sourceId: z.coerce.number({ error: "Pick a template" }).int().positive("Pick a template") }),
-  z.object({ mode: z.literal("copy"), name: z.string({ error: "Give the package a name" }).trim().min(2, "Give the package a name").max(120), bikeId: z.coerce.number({ error: "Pick the bike" }).int().positive("Pick the bike"), sourceId: z.coerce.number({ error: "Pick the package to copy" }).int().positive("Pick the package to copy") }),
-  z.object({ mode: z.literal("new-template"), name: z.string({ error: "Give the template a name" }).trim().min(2, "Give the template a name").max(120) }),
+  z.object({
+    mode: z.literal("scratch"),
+    name: z
+      .string({ error: "Give the package a name" })
+      .trim()
+      .min(2, "Give the package a name")
+      .max(120),
+    bikeId: z.coerce.number({ error: "Pick the bike" }).int().positive("Pick the bike"),
+  }),
+  z.object({
+    mode: z.literal("template"),
+    name: z
+      .string({ error: "Give the package a name" })
+      .trim()
+      .min(2, "Give the package a name")
+      .max(120),
+    bikeId: z.coerce.number({ error: "Pick the bike" }).int().positive("Pick the bike"),
+    sourceId: z.coerce.number({ error: "Pick a template" }).int().positive("Pick a template"),
+  }),
+  z.object({
+    mode: z.literal("copy"),
+    name: z
+      .string({ error: "Give the package a name" })
+      .trim()
+      .min(2, "Give the package a name")
+      .max(120),
+    bikeId: z.coerce.number({ error: "Pick the bike" }).int().positive("Pick the bike"),
+    sourceId: z.coerce
+      .number({ error: "Pick the package to copy" })
+      .int()
+      .positive("Pick the package to copy"),
+  }),
+  z.object({
+    mode: z.literal("new-template"),
+    name: z
+      .string({ error: "Give the template a name" })
+      .trim()
+      .min(2, "Give the template a name")
+      .max(120),
+  }),
 ]);
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -19,10 +55,27 @@ export async function loader({ request }: Route.LoaderArgs) {
   const db = getDb();
   const url = new URL(request.url);
   const [bikes, sources] = await Promise.all([
-    db.selectFrom("bikes as b").innerJoin("customers as c", "c.id", "b.customer_id").select(["b.id", "b.year", "b.model", "c.name as customer"]).orderBy("c.name").execute(),
-    db.selectFrom("packages").select(["id", "name", "is_template"]).orderBy("is_template", "desc").orderBy("name").execute(),
+    db
+      .selectFrom("bikes as b")
+      .innerJoin("customers as c", "c.id", "b.customer_id")
+      .select(["b.id", "b.year", "b.model", "c.name as customer"])
+      .orderBy("c.name")
+      .execute(),
+    db
+      .selectFrom("packages")
+      .select(["id", "name", "is_template"])
+      .orderBy("is_template", "desc")
+      .orderBy("name")
+      .execute(),
   ]);
-  return { bikes, sources, preset: { bikeId: url.searchParams.get("bike") ?? "", mode: url.searchParams.get("mode") ?? "scratch" } };
+  return {
+    bikes,
+    sources,
+    preset: {
+      bikeId: url.searchParams.get("bike") ?? "",
+      mode: url.searchParams.get("mode") ?? "scratch",
+    },
+  };
 }
 
 export async function action({ request }: Route.ActionArgs) {
@@ -34,15 +87,40 @@ export async function action({ request }: Route.ActionArgs) {
   const v = submission.value;
   let spec: unknown;
   if (v.mode === "template" || v.mode === "copy") {
-    const src = await db.selectFrom("packages").select(["spec", "is_template"]).where("id", "=", v.sourceId).executeTakeFirst();
+    const src = await db
+      .selectFrom("packages")
+      .select(["spec", "is_template"])
+      .where("id", "=", v.sourceId)
+      .executeTakeFirst();
     if (!src || (v.mode === "template" && !src.is_template)) {
-      return data({ result: submission.reply({ fieldErrors: { sourceId: [v.mode === "template" ? "That is not a shop template" : "That package no longer exists"] } }) }, { status: 400 });
+      return data(
+        {
+          result: submission.reply({
+            fieldErrors: {
+              sourceId: [
+                v.mode === "template"
+                  ? "That is not a shop template"
+                  : "That package no longer exists",
+              ],
+            },
+          }),
+        },
+        { status: 400 },
+      );
     }
     spec = src.spec;
   }
   if (v.mode !== "new-template") {
-    const bike = await db.selectFrom("bikes").select("id").where("id", "=", v.bikeId).executeTakeFirst();
-    if (!bike) return data({ result: submission.reply({ fieldErrors: { bikeId: ["That bike is not on file"] } }) }, { status: 400 });
+    const bike = await db
+      .selectFrom("bikes")
+      .select("id")
+      .where("id", "=", v.bikeId)
+      .executeTakeFirst();
+    if (!bike)
+      return data(
+        { result: submission.reply({ fieldErrors: { bikeId: ["That bike is not on file"] } }) },
+        { status: 400 },
+      );
   }
   const id = await createPackage(
     db,
@@ -53,7 +131,10 @@ export async function action({ request }: Route.ActionArgs) {
       builderId: user.role === "builder" || user.role === "owner" ? user.id : null,
       spec,
       copiedFromId: v.mode === "template" || v.mode === "copy" ? v.sourceId : null,
-      change: v.mode === "scratch" || v.mode === "new-template" ? "Package started" : `Started from package #${v.sourceId}`,
+      change:
+        v.mode === "scratch" || v.mode === "new-template"
+          ? "Package started"
+          : `Started from package #${v.sourceId}`,
     },
     user.id,
   );
@@ -68,12 +149,23 @@ export default function NewPackage({ loaderData, actionData }: Route.ComponentPr
     shouldRevalidate: "onBlur",
   });
   const mode = String(fields.mode.value ?? "scratch");
-  const sources = loaderData.sources.filter((s) => (mode === "template" ? s.is_template : mode === "copy" ? !s.is_template : false));
-  const err = (f: { errorId: string; errors?: string[] }) => (f.errors ? <p id={f.errorId} className="mt-0.5 text-sm text-red-text">{f.errors.join(" ")}</p> : null);
+  const sources = loaderData.sources.filter((s) =>
+    mode === "template" ? s.is_template : mode === "copy" ? !s.is_template : false,
+  );
+  const err = (f: { errorId: string; errors?: string[] }) =>
+    f.errors ? (
+      <p id={f.errorId} className="mt-0.5 text-sm text-red-text">
+        {f.errors.join(" ")}
+      </p>
+    ) : null;
   return (
     <main className="mx-auto max-w-2xl px-4 py-6">
       <h1 className="text-3xl font-semibold text-ink">New package</h1>
-      <Form method="post" {...getFormProps(form)} className="mt-4 flex flex-col gap-4 rounded border border-steel-200 bg-white p-4">
+      <Form
+        method="post"
+        {...getFormProps(form)}
+        className="mt-4 flex flex-col gap-4 rounded border border-steel-200 bg-white p-4"
+      >
         <fieldset>
           <legend className="text-sm font-semibold text-ink">Start</legend>
           {[
@@ -89,31 +181,60 @@ export default function NewPackage({ loaderData, actionData }: Route.ComponentPr
           ))}
         </fieldset>
         <div>
-          <label htmlFor={fields.name.id} className="block text-sm font-medium">Name</label>
-          <input {...getInputProps(fields.name, { type: "text" })} className="mt-0.5 w-full rounded border border-steel-300 px-2 py-1" placeholder="e.g. Highway passing power, stage 3" />
+          <label htmlFor={fields.name.id} className="block text-sm font-medium">
+            Name
+          </label>
+          <input
+            {...getInputProps(fields.name, { type: "text" })}
+            className="mt-0.5 w-full rounded border border-steel-300 px-2 py-1"
+            placeholder="e.g. Highway passing power, stage 3"
+          />
           {err(fields.name)}
         </div>
         {mode !== "new-template" ? (
           <div>
-            <label htmlFor={fields.bikeId.id} className="block text-sm font-medium">Bike</label>
-            <select {...getSelectProps(fields.bikeId)} className="mt-0.5 w-full rounded border border-steel-300 px-2 py-1">
+            <label htmlFor={fields.bikeId.id} className="block text-sm font-medium">
+              Bike
+            </label>
+            <select
+              {...getSelectProps(fields.bikeId)}
+              className="mt-0.5 w-full rounded border border-steel-300 px-2 py-1"
+            >
               <option value="">— pick the customer's bike —</option>
-              {loaderData.bikes.map((b) => <option key={b.id} value={b.id}>{b.customer} · {b.year} {b.model}</option>)}
+              {loaderData.bikes.map((b) => (
+                <option key={b.id} value={b.id}>
+                  {b.customer} · {b.year} {b.model}
+                </option>
+              ))}
             </select>
             {err(fields.bikeId)}
           </div>
         ) : null}
         {mode === "template" || mode === "copy" ? (
           <div>
-            <label htmlFor={fields.sourceId.id} className="block text-sm font-medium">{mode === "template" ? "Template" : "Package to copy"}</label>
-            <select {...getSelectProps(fields.sourceId)} className="mt-0.5 w-full rounded border border-steel-300 px-2 py-1">
+            <label htmlFor={fields.sourceId.id} className="block text-sm font-medium">
+              {mode === "template" ? "Template" : "Package to copy"}
+            </label>
+            <select
+              {...getSelectProps(fields.sourceId)}
+              className="mt-0.5 w-full rounded border border-steel-300 px-2 py-1"
+            >
               <option value="">— pick —</option>
-              {sources.map((s) => <option key={s.id} value={s.id}>{s.name}</option>)}
+              {sources.map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.name}
+                </option>
+              ))}
             </select>
             {err(fields.sourceId)}
           </div>
         ) : null}
-        <button type="submit" className="self-start rounded bg-teal px-4 py-1.5 font-semibold text-white hover:bg-teal-dark">Create and open the bench</button>
+        <button
+          type="submit"
+          className="self-start rounded bg-teal px-4 py-1.5 font-semibold text-white hover:bg-teal-dark"
+        >
+          Create and open the bench
+        </button>
       </Form>
     </main>
   );

@@ -1,16 +1,16 @@
 import { data, Form } from "react-router";
 import type { Route } from "./+types/parts.$id";
-import { PartHistory } from "~/components/parts/history";
-import { PartForm } from "~/components/parts/part-form";
+import { PartHistory } from "~/components/catalog/history";
+import { PartForm } from "~/components/catalog/part-form";
 import { Caution, Notice } from "~/components/ui/alert";
 import { buttonClass } from "~/components/ui/button";
 import { PageHeader, Section } from "~/components/ui/page-header";
-import { requirePermission } from "~/lib/auth.server";
-import { categoryOptions, getPart, getPartHistory } from "~/lib/catalog.server";
+import { requirePermission } from "~/lib/auth/auth.server";
+import { categoryOptions, getPart, getPartHistory } from "~/lib/catalog/parts.server";
 import { getDb } from "~/lib/db.server";
-import { handleArchive, handlePartSave } from "~/lib/part-actions.server";
-import { attributeFieldsFor, unitText } from "~/lib/part-attributes";
-import { can } from "~/lib/permissions";
+import { handleArchive, handlePartSave } from "~/lib/catalog/part-actions.server";
+import { attributeFieldsFor, unitText } from "~/lib/catalog/attributes";
+import { can } from "~/lib/auth/permissions";
 
 async function findPart(id: string | undefined) {
   const part = await getPart(getDb(), Number(id));
@@ -25,7 +25,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const part = await findPart(params.id);
   const db = getDb();
   const showPrices = can(user.role, "prices:read");
-  const [history, categories] = await Promise.all([getPartHistory(db, part.id), categoryOptions(db)]);
+  const [history, categories] = await Promise.all([
+    getPartHistory(db, part.id),
+    categoryOptions(db),
+  ]);
   return {
     canEdit: can(user.role, "parts:edit"),
     showPrices,
@@ -49,7 +52,13 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     history: history.map((h) => {
       const snap = { ...(h.snapshot as Record<string, unknown>) };
       if (!showPrices) delete snap.price_cents; // apprentices never receive prices, not even in the history
-      return { version: h.version, change: h.change, changed_at: iso(h.changed_at), changed_by_name: h.changed_by_name, snapshot: snap };
+      return {
+        version: h.version,
+        change: h.change,
+        changed_at: iso(h.changed_at),
+        changed_by_name: h.changed_by_name,
+        snapshot: snap,
+      };
     }),
   };
 }
@@ -59,7 +68,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   const part = await findPart(params.id);
   const formData = await request.formData();
   const intent = String(formData.get("intent") ?? "save");
-  if (intent === "archive" || intent === "restore") return handleArchive(part.id, intent === "archive", user);
+  if (intent === "archive" || intent === "restore")
+    return handleArchive(part.id, intent === "archive", user);
   return handlePartSave(formData, user, part.id);
 }
 
@@ -85,7 +95,11 @@ export default function PartPage({ loaderData }: Route.ComponentProps) {
           </>
         }
       />
-      {part.archived_at ? <Caution className="mt-3 font-medium">Archived: hidden from the parts shelf; packages that used it still show it.</Caution> : null}
+      {part.archived_at ? (
+        <Caution className="mt-3 font-medium">
+          Archived: hidden from the parts shelf; packages that used it still show it.
+        </Caution>
+      ) : null}
       {saved ? <Notice className="mt-3">Saved as version {saved}.</Notice> : null}
       <div className="mt-6 grid gap-8 lg:grid-cols-[1fr_24rem]">
         <div className="space-y-6">
@@ -104,7 +118,9 @@ export default function PartPage({ loaderData }: Route.ComponentProps) {
               {attributeFieldsFor(part.category).map((f) => (
                 <div key={f.key} className="contents">
                   <dt className="text-steel-700">{f.label}</dt>
-                  <dd className="num text-ink">{attrs[f.key] === undefined ? "—" : `${attrs[f.key]} ${unitText(f.unit)}`}</dd>
+                  <dd className="num text-ink">
+                    {attrs[f.key] === undefined ? "—" : `${attrs[f.key]} ${unitText(f.unit)}`}
+                  </dd>
                 </div>
               ))}
               {part.notes ? (
@@ -114,7 +130,9 @@ export default function PartPage({ loaderData }: Route.ComponentProps) {
                 </>
               ) : null}
             </dl>
-            <p className="mt-3 text-xs text-steel-700">Fit and torque every part to its maker's instructions.</p>
+            <p className="mt-3 text-xs text-steel-700">
+              Fit and torque every part to its maker's instructions.
+            </p>
           </section>
           {canEdit ? (
             <Section id="edit-h" title="Change this part">
@@ -132,12 +150,18 @@ export default function PartPage({ loaderData }: Route.ComponentProps) {
                   tags: part.tags.join(", "),
                   stock: part.stock,
                   notes: part.notes,
-                  attributes: Object.fromEntries(Object.entries(attrs).map(([k, v]) => [k, String(v)])),
+                  attributes: Object.fromEntries(
+                    Object.entries(attrs).map(([k, v]) => [k, String(v)]),
+                  ),
                   version: part.version,
                 }}
               />
               <Form method="post" className="mt-3">
-                <input type="hidden" name="intent" value={part.archived_at ? "restore" : "archive"} />
+                <input
+                  type="hidden"
+                  name="intent"
+                  value={part.archived_at ? "restore" : "archive"}
+                />
                 <button type="submit" className={buttonClass("quiet")}>
                   {part.archived_at ? "Restore to the shelf" : "Archive (hide from the shelf)"}
                 </button>

@@ -1,8 +1,8 @@
 import type { Route } from "./+types/parts.export[.]csv";
-import { requirePermission } from "~/lib/auth.server";
-import { partsToCsv } from "~/lib/csv.server";
+import { requirePermission } from "~/lib/auth/auth.server";
+import { partsToCsv } from "~/lib/catalog/csv.server";
 import { getDb } from "~/lib/db.server";
-import { can } from "~/lib/permissions";
+import { can } from "~/lib/auth/permissions";
 
 // GET /parts/export.csv — the catalog (archived parts too with ?archived=1); prices only for roles that see them.
 export async function loader({ request }: Route.LoaderArgs) {
@@ -13,6 +13,10 @@ export async function loader({ request }: Route.LoaderArgs) {
   const csv = partsToCsv(await q.execute(), can(user.role, "prices:read"));
   return new Response(`\uFEFF${csv}\r\n`, {
     status: 200,
-    headers: { "Content-Type": "text/csv; charset=utf-8", "Content-Disposition": 'attachment; filename="parts-catalog.csv"', "Cache-Control": "private, no-store" },
+    headers: {
+      "Content-Type": "text/csv; charset=utf-8",
+      "Content-Disposition": 'attachment; filename="parts-catalog.csv"',
+      "Cache-Control": "private, no-store",
+    },
   });
 }

@@ -1,9 +1,9 @@
 import { data, Form, useNavigation } from "react-router";
 import type { Route } from "./+types/parts.import";
 import { PageHeader } from "~/components/ui/page-header";
-import { requirePermission } from "~/lib/auth.server";
-import { CSV_COLUMNS, MAX_CSV_BYTES } from "~/components/parts/csv-columns";
-import { checkPartsCsv, importPartsCsv, type CsvCheck } from "~/lib/csv.server";
+import { requirePermission } from "~/lib/auth/auth.server";
+import { CSV_COLUMNS, MAX_CSV_BYTES } from "~/components/catalog/csv-columns";
+import { checkPartsCsv, importPartsCsv, type CsvCheck } from "~/lib/catalog/csv.server";
 import { getDb } from "~/lib/db.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -11,31 +11,60 @@ export async function loader({ request }: Route.LoaderArgs) {
   return null;
 }
 
-type ImportData = { message: string | null; check: CsvCheck | null; csv: string | null; written: number | null };
+type ImportData = {
+  message: string | null;
+  check: CsvCheck | null;
+  csv: string | null;
+  written: number | null;
+};
 const TOO_BIG = `The file is larger than ${MAX_CSV_BYTES / 1024 / 1024} MB. Split it into smaller files.`;
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requirePermission(request, "parts:edit");
   const length = Number(request.headers.get("Content-Length") ?? 0);
   // the form's other fields are small: anything far past the limit is refused unread
-  if (length > MAX_CSV_BYTES * 1.1 + 64 * 1024) return data<ImportData>({ message: TOO_BIG, check: null, csv: null, written: null }, { status: 413 });
+  if (length > MAX_CSV_BYTES * 1.1 + 64 * 1024)
+    return data<ImportData>(
+      { message: TOO_BIG, check: null, csv: null, written: null },
+      { status: 413 },
+    );
   const form = await request.formData();
   const file = form.get("file");
   let csv = typeof form.get("csv") === "string" ? String(form.get("csv")) : "";
   if (file instanceof File && file.size > 0) {
-    if (file.size > MAX_CSV_BYTES) return data<ImportData>({ message: TOO_BIG, check: null, csv: null, written: null }, { status: 413 });
+    if (file.size > MAX_CSV_BYTES)
+      return data<ImportData>(
+        { message: TOO_BIG, check: null, csv: null, written: null },
+        { status: 413 },
+      );
     csv = await file.text();
   }
-  if (!csv.trim()) return data<ImportData>({ message: "Choose a CSV file to check.", check: null, csv: null, written: null }, { status: 400 });
+  if (!csv.trim())
+    return data<ImportData>(
+      { message: "Choose a CSV file to check.", check: null, csv: null, written: null },
+      { status: 400 },
+    );
   const db = getDb();
   if (form.get("intent") === "import") {
     const r = await importPartsCsv(db, csv, user.id);
-    if (!r.ok) return data<ImportData>({ message: r.message, check: null, csv: null, written: null }, { status: 400 });
-    if (r.invalid > 0) return data<ImportData>({ message: "Nothing was written: some rows are not valid.", check: r, csv, written: null }, { status: 400 });
+    if (!r.ok)
+      return data<ImportData>(
+        { message: r.message, check: null, csv: null, written: null },
+        { status: 400 },
+      );
+    if (r.invalid > 0)
+      return data<ImportData>(
+        { message: "Nothing was written: some rows are not valid.", check: r, csv, written: null },
+        { status: 400 },
+      );
     return { message: null, check: r, csv: null, written: r.written ?? 0 };
   }
   const check = await checkPartsCsv(db, csv);
-  if (!check.ok) return data<ImportData>({ message: check.message, check: null, csv: null, written: null }, { status: 400 });
+  if (!check.ok)
+    return data<ImportData>(
+      { message: check.message, check: null, csv: null, written: null },
+      { status: 400 },
+    );
   return { message: null, check, csv, written: null };
 }
 
@@ -50,33 +79,58 @@ export default function ImportParts({ actionData }: Route.ComponentProps) {
         title="Import parts from CSV"
         lead={`Check a file first: every row is validated like the part form, and nothing is written until you import. An import writes every row or none. Up to ${MAX_CSV_BYTES / 1024 / 1024} MB.`}
       />
-      <Form method="post" encType="multipart/form-data" className="mt-6 flex flex-wrap items-end gap-3 rounded border border-steel-200 bg-white p-4">
+      <Form
+        method="post"
+        encType="multipart/form-data"
+        className="mt-6 flex flex-wrap items-end gap-3 rounded border border-steel-200 bg-white p-4"
+      >
         <div>
           <label htmlFor="file" className="block text-sm font-semibold text-graphite">
             CSV file
           </label>
-          <input id="file" name="file" type="file" accept=".csv,text/csv" aria-describedby="import-message" className="mt-1 block text-sm" />
+          <input
+            id="file"
+            name="file"
+            type="file"
+            accept=".csv,text/csv"
+            aria-describedby="import-message"
+            className="mt-1 block text-sm"
+          />
         </div>
-        <button type="submit" name="intent" value="preview" disabled={busy} className="rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink disabled:opacity-60">
+        <button
+          type="submit"
+          name="intent"
+          value="preview"
+          disabled={busy}
+          className="rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink disabled:opacity-60"
+        >
           Check the file
         </button>
       </Form>
       <div id="import-message" aria-live="polite">
         {actionData?.message ? (
-          <p role="alert" className="mt-4 rounded border border-red bg-white px-3 py-2 font-medium text-red-text">
+          <p
+            role="alert"
+            className="mt-4 rounded border border-red bg-white px-3 py-2 font-medium text-red-text"
+          >
             {actionData.message}
           </p>
         ) : null}
         {actionData?.written !== null && actionData?.written !== undefined ? (
-          <p role="status" className="mt-4 rounded border border-green bg-white px-3 py-2 font-medium text-green-text">
-            Imported {actionData.written} part{actionData.written === 1 ? "" : "s"}. Each change is in the part's history.
+          <p
+            role="status"
+            className="mt-4 rounded border border-green bg-white px-3 py-2 font-medium text-green-text"
+          >
+            Imported {actionData.written} part{actionData.written === 1 ? "" : "s"}. Each change is
+            in the part's history.
           </p>
         ) : null}
       </div>
       {check && actionData?.written === null ? (
         <section aria-labelledby="check-h" className="mt-6">
           <h2 id="check-h" className="text-lg font-semibold text-ink">
-            <span className="num">{check.rows.length}</span> rows: <span className="num text-green-text">{check.valid}</span> valid,{" "}
+            <span className="num">{check.rows.length}</span> rows:{" "}
+            <span className="num text-green-text">{check.valid}</span> valid,{" "}
             <span className="num text-red-text">{check.invalid}</span> with problems
           </h2>
           {check.invalid > 0 ? (
@@ -86,7 +140,9 @@ export default function ImportParts({ actionData }: Route.ComponentProps) {
                 .slice(0, 200)
                 .map((r) => (
                   <li key={r.line}>
-                    <span className="num font-semibold">Line {r.line}</span> <span className="font-mono">{r.partNumber || "(no part number)"}</span>: {r.errors.join("; ")}
+                    <span className="num font-semibold">Line {r.line}</span>{" "}
+                    <span className="font-mono">{r.partNumber || "(no part number)"}</span>:{" "}
+                    {r.errors.join("; ")}
                   </li>
                 ))}
             </ul>
@@ -94,20 +150,33 @@ export default function ImportParts({ actionData }: Route.ComponentProps) {
             <Form method="post" className="mt-3">
               <input type="hidden" name="csv" value={actionData?.csv ?? ""} />
               <p className="text-sm text-steel-700">
-                {check.rows.filter((r) => r.action === "add").length} new, {check.rows.filter((r) => r.action === "update").length} updated.
+                {check.rows.filter((r) => r.action === "add").length} new,{" "}
+                {check.rows.filter((r) => r.action === "update").length} updated.
               </p>
-              <button type="submit" name="intent" value="import" disabled={busy} className="mt-2 rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink disabled:opacity-60">
+              <button
+                type="submit"
+                name="intent"
+                value="import"
+                disabled={busy}
+                className="mt-2 rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink disabled:opacity-60"
+              >
                 Import {check.rows.length} rows
               </button>
             </Form>
           )}
         </section>
       ) : null}
-      <section aria-labelledby="cols-h" className="mt-8 rounded border border-steel-200 bg-white p-4 text-sm">
+      <section
+        aria-labelledby="cols-h"
+        className="mt-8 rounded border border-steel-200 bg-white p-4 text-sm"
+      >
         <h2 id="cols-h" className="text-lg font-semibold text-ink">
           Columns
         </h2>
-        <p className="mt-1 text-steel-700">The first line names the columns (any order). Export the catalog to get a file in this shape.</p>
+        <p className="mt-1 text-steel-700">
+          The first line names the columns (any order). Export the catalog to get a file in this
+          shape.
+        </p>
         <table className="mt-2 w-full">
           <tbody>
             {CSV_COLUMNS.map((c) => (
@@ -119,7 +188,10 @@ export default function ImportParts({ actionData }: Route.ComponentProps) {
             ))}
           </tbody>
         </table>
-        <p className="mt-2 text-steel-700">Cells that begin with = + - @ are exported with a leading apostrophe so a spreadsheet shows them as text.</p>
+        <p className="mt-2 text-steel-700">
+          Cells that begin with = + - @ are exported with a leading apostrophe so a spreadsheet
+          shows them as text.
+        </p>
       </section>
     </main>
   );

@@ -5,16 +5,25 @@ import type { Route } from "./+types/parts";
 import { buttonClass } from "~/components/ui/button";
 import { controlClass, Field } from "~/components/ui/field";
 import { PageHeader } from "~/components/ui/page-header";
-import { requirePermission } from "~/lib/auth.server";
-import { addCategory, categoryOptions, partForRole, PART_SORTS, searchParts, type PartSort } from "~/lib/catalog.server";
+import { requirePermission } from "~/lib/auth/auth.server";
+import {
+  addCategory,
+  categoryOptions,
+  partForRole,
+  PART_SORTS,
+  searchParts,
+  type PartSort,
+} from "~/lib/catalog/parts.server";
 import { getDb } from "~/lib/db.server";
-import { can } from "~/lib/permissions";
+import { can } from "~/lib/auth/permissions";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "parts:read");
   const url = new URL(request.url);
   const p = url.searchParams;
-  const sort = (PART_SORTS as readonly string[]).includes(p.get("sort") ?? "") ? (p.get("sort") as PartSort) : "part_number";
+  const sort = (PART_SORTS as readonly string[]).includes(p.get("sort") ?? "")
+    ? (p.get("sort") as PartSort)
+    : "part_number";
   const showPrices = can(user.role, "prices:read");
   const search = {
     q: (p.get("q") ?? "").slice(0, 100),
@@ -25,7 +34,10 @@ export async function loader({ request }: Route.LoaderArgs) {
     page: Math.min(Number(p.get("page")) || 1, 10_000),
   };
   const db = getDb();
-  const [found, categories] = await Promise.all([searchParts(db, { ...search, category: search.category || undefined }), categoryOptions(db)]);
+  const [found, categories] = await Promise.all([
+    searchParts(db, { ...search, category: search.category || undefined }),
+    categoryOptions(db),
+  ]);
   return {
     search,
     showPrices,
@@ -35,19 +47,41 @@ export async function loader({ request }: Route.LoaderArgs) {
     pages: found.pages,
     rows: found.rows.map((r) => {
       const x = partForRole(r, showPrices);
-      return { id: x.id, part_number: x.part_number, category: x.category, maker: x.maker, name: x.name, price_cents: x.price_cents, labour_hours: Number(x.labour_hours), tags: x.tags, stock: x.stock, archived: x.archived_at !== null };
+      return {
+        id: x.id,
+        part_number: x.part_number,
+        category: x.category,
+        maker: x.maker,
+        name: x.name,
+        price_cents: x.price_cents,
+        labour_hours: Number(x.labour_hours),
+        tags: x.tags,
+        stock: x.stock,
+        archived: x.archived_at !== null,
+      };
     }),
   };
 }
 
-const CategorySchema = z.object({ label: z.string({ error: "Name the category" }).trim().min(2, "Name the category").max(60, "Keep it under 60 characters") });
+const CategorySchema = z.object({
+  label: z
+    .string({ error: "Name the category" })
+    .trim()
+    .min(2, "Name the category")
+    .max(60, "Keep it under 60 characters"),
+});
 
 export async function action({ request }: Route.ActionArgs) {
   await requirePermission(request, "parts:edit");
   const submission = parseWithZod(await request.formData(), { schema: CategorySchema });
-  if (submission.status !== "success") return data({ result: submission.reply(), added: null }, { status: 400 });
+  if (submission.status !== "success")
+    return data({ result: submission.reply(), added: null }, { status: 400 });
   const r = await addCategory(getDb(), submission.value.label);
-  if ("error" in r) return data({ result: submission.reply({ fieldErrors: { label: [r.error] } }), added: null }, { status: 400 });
+  if ("error" in r)
+    return data(
+      { result: submission.reply({ fieldErrors: { label: [r.error] } }), added: null },
+      { status: 400 },
+    );
   return { result: submission.reply({ resetForm: true }), added: r.slug };
 }
 
@@ -69,7 +103,10 @@ export default function Parts({ loaderData, actionData }: Route.ComponentProps) 
     const active = search.sort === key;
     const dir = active && search.dir === "asc" ? "desc" : "asc";
     return (
-      <th className={`px-3 py-2 ${right ? "text-right" : ""}`} aria-sort={active ? (search.dir === "asc" ? "ascending" : "descending") : "none"}>
+      <th
+        className={`px-3 py-2 ${right ? "text-right" : ""}`}
+        aria-sort={active ? (search.dir === "asc" ? "ascending" : "descending") : "none"}
+      >
         <Link to={link({ sort: key, dir, page: 1 })} className="underline decoration-steel-300">
           {label}
           {active ? (search.dir === "asc" ? " ▲" : " ▼") : ""}
@@ -100,18 +137,31 @@ export default function Parts({ loaderData, actionData }: Route.ComponentProps) 
           </>
         }
       />
-      <Form method="get" className="mt-6 flex flex-wrap items-end gap-3 rounded border border-steel-200 bg-white p-3">
+      <Form
+        method="get"
+        className="mt-6 flex flex-wrap items-end gap-3 rounded border border-steel-200 bg-white p-3"
+      >
         <div className="min-w-56 flex-1">
           <label htmlFor="q" className="block text-sm font-semibold text-graphite">
             Search number, name, maker or tag
           </label>
-          <input id="q" name="q" defaultValue={search.q} className="mt-1 block w-full rounded border border-steel-300 px-3 py-2" />
+          <input
+            id="q"
+            name="q"
+            defaultValue={search.q}
+            className="mt-1 block w-full rounded border border-steel-300 px-3 py-2"
+          />
         </div>
         <div>
           <label htmlFor="category" className="block text-sm font-semibold text-graphite">
             Category
           </label>
-          <select id="category" name="category" defaultValue={search.category} className="mt-1 block rounded border border-steel-300 bg-white px-2 py-2">
+          <select
+            id="category"
+            name="category"
+            defaultValue={search.category}
+            className="mt-1 block rounded border border-steel-300 bg-white px-2 py-2"
+          >
             <option value="">All</option>
             {categories.map((c) => (
               <option key={c.value} value={c.value}>
@@ -121,11 +171,21 @@ export default function Parts({ loaderData, actionData }: Route.ComponentProps) 
           </select>
         </div>
         <label className="flex items-center gap-2 pb-2 text-sm font-semibold text-graphite">
-          <input type="checkbox" name="archived" value="1" defaultChecked={search.archived} className="h-4 w-4 accent-teal" /> Show archived
+          <input
+            type="checkbox"
+            name="archived"
+            value="1"
+            defaultChecked={search.archived}
+            className="h-4 w-4 accent-teal"
+          />{" "}
+          Show archived
         </label>
         <input type="hidden" name="sort" value={search.sort} />
         <input type="hidden" name="dir" value={search.dir} />
-        <button type="submit" className="rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink">
+        <button
+          type="submit"
+          className="rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink"
+        >
           Search
         </button>
       </Form>
@@ -147,7 +207,10 @@ export default function Parts({ loaderData, actionData }: Route.ComponentProps) 
           </thead>
           <tbody>
             {rows.map((r) => (
-              <tr key={r.id} className={`border-t border-steel-100 align-top ${r.archived ? "text-steel-700" : ""}`}>
+              <tr
+                key={r.id}
+                className={`border-t border-steel-100 align-top ${r.archived ? "text-steel-700" : ""}`}
+              >
                 <td className="px-3 py-2 font-mono">
                   <Link to={`/parts/${r.id}`} className="font-semibold text-ink underline">
                     {r.part_number}
@@ -155,13 +218,25 @@ export default function Parts({ loaderData, actionData }: Route.ComponentProps) 
                 </td>
                 <td className="px-3 py-2">
                   {r.name}
-                  {r.stock ? <span className="ml-2 rounded border border-steel-300 px-1 text-xs text-steel-700">stock</span> : null}
-                  {r.archived ? <span className="ml-2 rounded border border-steel-300 px-1 text-xs text-steel-700">archived</span> : null}
+                  {r.stock ? (
+                    <span className="ml-2 rounded border border-steel-300 px-1 text-xs text-steel-700">
+                      stock
+                    </span>
+                  ) : null}
+                  {r.archived ? (
+                    <span className="ml-2 rounded border border-steel-300 px-1 text-xs text-steel-700">
+                      archived
+                    </span>
+                  ) : null}
                 </td>
                 <td className="px-3 py-2">{labelOf.get(r.category) ?? r.category}</td>
                 <td className="px-3 py-2">{r.maker}</td>
                 <td className="px-3 py-2 font-mono text-xs text-steel-700">{r.tags.join(" ")}</td>
-                {showPrices ? <td className="num px-3 py-2 text-right">{r.price_cents === null ? "" : money.format(r.price_cents / 100)}</td> : null}
+                {showPrices ? (
+                  <td className="num px-3 py-2 text-right">
+                    {r.price_cents === null ? "" : money.format(r.price_cents / 100)}
+                  </td>
+                ) : null}
                 <td className="num px-3 py-2 text-right">{r.labour_hours} h</td>
               </tr>
             ))}
@@ -177,20 +252,49 @@ export default function Parts({ loaderData, actionData }: Route.ComponentProps) 
       </div>
       {pages > 1 ? (
         <nav aria-label="Pages" className="mt-3 flex items-center gap-3 text-sm">
-          {search.page > 1 ? <Link to={link({ page: search.page - 1 })} className="text-teal-text underline">← Previous</Link> : null}
+          {search.page > 1 ? (
+            <Link to={link({ page: search.page - 1 })} className="text-teal-text underline">
+              ← Previous
+            </Link>
+          ) : null}
           <span className="num">
             Page {search.page} of {pages}
           </span>
-          {search.page < pages ? <Link to={link({ page: search.page + 1 })} className="text-teal-text underline">Next →</Link> : null}
+          {search.page < pages ? (
+            <Link to={link({ page: search.page + 1 })} className="text-teal-text underline">
+              Next →
+            </Link>
+          ) : null}
         </nav>
       ) : null}
       {canEdit ? (
-        <Form method="post" className="mt-8 flex max-w-xl flex-wrap items-end gap-3 rounded border border-steel-200 bg-white p-3">
+        <Form
+          method="post"
+          className="mt-8 flex max-w-xl flex-wrap items-end gap-3 rounded border border-steel-200 bg-white p-3"
+        >
           <div className="flex-1">
-            <Field id="label" label="Add a category" hint="A category the shop adds carries no measurements; its parts are found by number, name, maker and tags." errorId="label-error" errors={actionData?.result?.error?.label}>
-              <input id="label" name="label" aria-invalid={actionData?.result?.error?.label ? true : undefined} aria-describedby={actionData?.result?.error?.label ? "label-error label-hint" : "label-hint"} className={controlClass(actionData?.result?.error?.label)} />
+            <Field
+              id="label"
+              label="Add a category"
+              hint="A category the shop adds carries no measurements; its parts are found by number, name, maker and tags."
+              errorId="label-error"
+              errors={actionData?.result?.error?.label}
+            >
+              <input
+                id="label"
+                name="label"
+                aria-invalid={actionData?.result?.error?.label ? true : undefined}
+                aria-describedby={
+                  actionData?.result?.error?.label ? "label-error label-hint" : "label-hint"
+                }
+                className={controlClass(actionData?.result?.error?.label)}
+              />
             </Field>
-            {actionData?.added ? <p role="status" className="mt-1 text-sm text-green-text">Added “{actionData.added}”.</p> : null}
+            {actionData?.added ? (
+              <p role="status" className="mt-1 text-sm text-green-text">
+                Added “{actionData.added}”.
+              </p>
+            ) : null}
           </div>
           <button type="submit" className={buttonClass("secondary")}>
             Add

@@ -3,15 +3,15 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/reset";
-import { AuthCard } from "~/components/auth-form";
+import { AuthCard } from "~/components/auth/auth-form";
 import { Notice } from "~/components/ui/alert";
 import { SubmitButton } from "~/components/ui/button";
 import { TextField } from "~/components/ui/field";
 import { Honeypot } from "~/components/ui/honeypot";
 import { getDb } from "~/lib/db.server";
-import { honeypotStamp, trippedHoneypot } from "~/lib/honeypot.server";
-import { requireSameOrigin } from "~/lib/origin.server";
-import { requestPasswordReset } from "~/lib/reset.server";
+import { honeypotStamp, trippedHoneypot } from "~/lib/auth/honeypot.server";
+import { requireSameOrigin } from "~/lib/auth/origin.server";
+import { requestPasswordReset } from "~/lib/auth/reset.server";
 
 const ResetRequestSchema = z.object({
   email: z.email("Enter the e-mail address of your staff account."),
@@ -28,7 +28,8 @@ export async function action({ request }: Route.ActionArgs) {
   requireSameOrigin(request);
   const formData = await request.formData();
   const submission = parseWithZod(formData, { schema: ResetRequestSchema });
-  if (submission.status !== "success") return data({ result: submission.reply(), sent: false }, { status: 400 });
+  if (submission.status !== "success")
+    return data({ result: submission.reply(), sent: false }, { status: 400 });
   // a script that trips the honeypot gets the usual answer, and no mail goes out
   if (!trippedHoneypot(formData)) await requestPasswordReset(getDb(), submission.value.email);
   return { result: submission.reply({ resetForm: true }), sent: true };
@@ -42,15 +43,28 @@ export default function ResetRequest({ loaderData, actionData }: Route.Component
     shouldRevalidate: "onInput",
   });
   return (
-    <AuthCard title="Forgot your password?" lead="Enter the e-mail of your staff account; we send a link to choose a new password.">
+    <AuthCard
+      title="Forgot your password?"
+      lead="Enter the e-mail of your staff account; we send a link to choose a new password."
+    >
       <Form method="post" {...getFormProps(form)} className="space-y-4">
         {actionData?.sent ? <Notice>{RESET_SENT}</Notice> : null}
-        <TextField label="E-mail" field={fields.email} type="email" autoComplete="username" autoFocus />
+        <TextField
+          label="E-mail"
+          field={fields.email}
+          type="email"
+          autoComplete="username"
+          autoFocus
+        />
         <Honeypot stamp={loaderData.stamp} />
-        <SubmitButton wide busy={navigation.state !== "idle"}>Send the link</SubmitButton>
+        <SubmitButton wide busy={navigation.state !== "idle"}>
+          Send the link
+        </SubmitButton>
       </Form>
       <p className="mt-4 text-sm">
-        <Link to="/login" className="font-medium text-teal-text underline">Back to sign-in</Link>
+        <Link to="/login" className="font-medium text-teal-text underline">
+          Back to sign-in
+        </Link>
       </p>
     </AuthCard>
   );

@@ -1,17 +1,17 @@
 import { data } from "react-router";
 import type { Route } from "./+types/rules.$id";
-import { RuleHistory } from "~/components/rules/history";
-import { KindBadge } from "~/components/rules/kind-badge";
-import { WithReference } from "~/components/rules/with-reference";
-import { RuleForm } from "~/components/rules/rule-form";
+import { RuleHistory } from "~/components/fit-rules/history";
+import { KindBadge } from "~/components/fit-rules/kind-badge";
+import { WithReference } from "~/components/fit-rules/with-reference";
+import { RuleForm } from "~/components/fit-rules/rule-form";
 import { Notice } from "~/components/ui/alert";
 import { PageHeader, Section } from "~/components/ui/page-header";
-import { requirePermission } from "~/lib/auth.server";
+import { requirePermission } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
-import { getRule, getRuleHistory } from "~/lib/fit-rules.server";
-import { can } from "~/lib/permissions";
+import { getRule, getRuleHistory } from "~/lib/fit-rules/rules.server";
+import { can } from "~/lib/auth/permissions";
 
-import { handleRuleAction, ruleFormOptions } from "~/lib/rule-actions.server";
+import { handleRuleAction, ruleFormOptions } from "~/lib/fit-rules/actions.server";
 
 const iso = (d: unknown) => new Date(d as string).toISOString();
 
@@ -50,7 +50,9 @@ export default function RulePage({ loaderData }: Route.ComponentProps) {
         title={
           <>
             {rule.name} <KindBadge kind={rule.kind} />
-            {rule.active ? null : <span className="text-base font-semibold uppercase text-steel-700">off</span>}
+            {rule.active ? null : (
+              <span className="text-base font-semibold uppercase text-steel-700">off</span>
+            )}
           </>
         }
         lead={

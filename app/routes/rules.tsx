@@ -1,14 +1,14 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/rules";
-import { KindBadge } from "~/components/rules/kind-badge";
-import { WithReference } from "~/components/rules/with-reference";
+import { KindBadge } from "~/components/fit-rules/kind-badge";
+import { WithReference } from "~/components/fit-rules/with-reference";
 import { Caution } from "~/components/ui/alert";
 import { buttonClass } from "~/components/ui/button";
 import { PageHeader } from "~/components/ui/page-header";
-import { requirePermission } from "~/lib/auth.server";
+import { requirePermission } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
-import { listRules } from "~/lib/fit-rules.server";
-import { can } from "~/lib/permissions";
+import { listRules } from "~/lib/fit-rules/rules.server";
+import { can } from "~/lib/auth/permissions";
 
 const iso = (d: unknown) => new Date(d as string).toISOString();
 
@@ -17,7 +17,16 @@ export async function loader({ request }: Route.LoaderArgs) {
   const rules = await listRules(getDb());
   return {
     canEdit: can(user.role, "rules:edit"),
-    rules: rules.map((r) => ({ id: r.id, name: r.name, kind: r.kind, condition: r.condition, active: r.active, version: r.version, updated_at: iso(r.updated_at), updated_by_name: r.updated_by_name })),
+    rules: rules.map((r) => ({
+      id: r.id,
+      name: r.name,
+      kind: r.kind,
+      condition: r.condition,
+      active: r.active,
+      version: r.version,
+      updated_at: iso(r.updated_at),
+      updated_by_name: r.updated_by_name,
+    })),
   };
 }
 
@@ -39,7 +48,9 @@ export default function Rules({ loaderData }: Route.ComponentProps) {
         }
       />
       <Caution className="mt-3">
-        Rules help the staff remember the shop's practice; they do not replace the parts maker's instructions, local regulations or a qualified technician's check of brakes, axles and suspension.
+        Rules help the staff remember the shop's practice; they do not replace the parts maker's
+        instructions, local regulations or a qualified technician's check of brakes, axles and
+        suspension.
       </Caution>
       <WithReference>
         <section aria-labelledby="list-h">
@@ -47,7 +58,9 @@ export default function Rules({ loaderData }: Route.ComponentProps) {
             Rules
           </h2>
           {rules.length === 0 ? (
-            <p className="rounded border border-steel-200 bg-white p-4 text-steel-700">No rules yet.{canEdit ? " Write the first one with “New rule”." : ""}</p>
+            <p className="rounded border border-steel-200 bg-white p-4 text-steel-700">
+              No rules yet.{canEdit ? " Write the first one with “New rule”." : ""}
+            </p>
           ) : (
             <table className="w-full rounded border border-steel-200 bg-white text-sm">
               <thead className="bg-steel-100 text-left text-graphite">
@@ -60,7 +73,10 @@ export default function Rules({ loaderData }: Route.ComponentProps) {
               </thead>
               <tbody>
                 {rules.map((r) => (
-                  <tr key={r.id} className={`border-t border-steel-100 align-top ${r.active ? "" : "text-steel-700"}`}>
+                  <tr
+                    key={r.id}
+                    className={`border-t border-steel-100 align-top ${r.active ? "" : "text-steel-700"}`}
+                  >
                     <td className="px-3 py-2">
                       <KindBadge kind={r.kind} />
                     </td>
@@ -68,13 +84,21 @@ export default function Rules({ loaderData }: Route.ComponentProps) {
                       <Link to={`/rules/${r.id}`} className="font-semibold text-ink underline">
                         {r.name}
                       </Link>
-                      {r.active ? null : <span className="ml-2 text-xs font-semibold uppercase text-steel-700">off</span>}
-                      <code className="mt-0.5 block break-all font-mono text-xs text-steel-700">{r.condition}</code>
+                      {r.active ? null : (
+                        <span className="ml-2 text-xs font-semibold uppercase text-steel-700">
+                          off
+                        </span>
+                      )}
+                      <code className="mt-0.5 block break-all font-mono text-xs text-steel-700">
+                        {r.condition}
+                      </code>
                     </td>
                     <td className="num px-3 py-2">v{r.version}</td>
                     <td className="px-3 py-2 text-steel-700">
                       <span className="num">{dateFmt.format(new Date(r.updated_at))}</span>
-                      {r.updated_by_name ? <span className="block">{r.updated_by_name}</span> : null}
+                      {r.updated_by_name ? (
+                        <span className="block">{r.updated_by_name}</span>
+                      ) : null}
                     </td>
                   </tr>
                 ))}

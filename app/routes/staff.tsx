@@ -7,9 +7,9 @@ import { FormAlert, formErrorsOf, Notice } from "~/components/ui/alert";
 import { SubmitButton } from "~/components/ui/button";
 import { SelectField, TextField } from "~/components/ui/field";
 import { PageHeader } from "~/components/ui/page-header";
-import { requirePermission } from "~/lib/auth.server";
+import { requirePermission } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
-import { ROLE_LABELS, ROLES, type Role } from "~/lib/permissions";
+import { ROLE_LABELS, ROLES, type Role } from "~/lib/auth/permissions";
 import {
   changeRole,
   emailInUse,
@@ -19,13 +19,21 @@ import {
   revokeInvite,
   setDisabled,
   StaffRuleError,
-} from "~/lib/staff.server";
+} from "~/lib/auth/staff.server";
 
 const roleField = z.enum(ROLES as [Role, ...Role[]], "Choose a role.");
 
 const StaffSchema = z.discriminatedUnion("intent", [
-  z.object({ intent: z.literal("invite"), email: z.email("Enter the person's e-mail address.").max(200), role: roleField }),
-  z.object({ intent: z.literal("role"), userId: z.coerce.number().int().positive(), role: roleField }),
+  z.object({
+    intent: z.literal("invite"),
+    email: z.email("Enter the person's e-mail address.").max(200),
+    role: roleField,
+  }),
+  z.object({
+    intent: z.literal("role"),
+    userId: z.coerce.number().int().positive(),
+    role: roleField,
+  }),
   z.object({ intent: z.literal("disable"), userId: z.coerce.number().int().positive() }),
   z.object({ intent: z.literal("enable"), userId: z.coerce.number().int().positive() }),
   z.object({ intent: z.literal("revoke"), inviteId: z.coerce.number().int().positive() }),
@@ -44,21 +52,32 @@ export async function action({ request }: Route.ActionArgs) {
   const submission = await parseWithZod(await request.formData(), {
     schema: StaffSchema.superRefine(async (v, ctx) => {
       if (v.intent === "invite" && (await emailInUse(db, v.email))) {
-        ctx.addIssue({ code: "custom", path: ["email"], message: "An account with this e-mail already exists." });
+        ctx.addIssue({
+          code: "custom",
+          path: ["email"],
+          message: "An account with this e-mail already exists.",
+        });
       }
     }),
     async: true,
   });
-  if (submission.status !== "success") return data({ result: submission.reply(), done: null }, { status: 400 });
+  if (submission.status !== "success")
+    return data({ result: submission.reply(), done: null }, { status: 400 });
   const v = submission.value;
   try {
     switch (v.intent) {
       case "invite":
         await inviteStaff(db, { email: v.email, role: v.role, invitedBy: me });
-        return { result: submission.reply({ resetForm: true }), done: `Invite sent to ${v.email}.` };
+        return {
+          result: submission.reply({ resetForm: true }),
+          done: `Invite sent to ${v.email}.`,
+        };
       case "role":
         await changeRole(db, v.userId, v.role);
-        return { result: submission.reply(), done: `Role changed to ${ROLE_LABELS[v.role].toLowerCase()}.` };
+        return {
+          result: submission.reply(),
+          done: `Role changed to ${ROLE_LABELS[v.role].toLowerCase()}.`,
+        };
       case "disable":
         await setDisabled(db, v.userId, true);
         return { result: submission.reply(), done: "Account disabled; its sessions have ended." };
@@ -70,21 +89,34 @@ export async function action({ request }: Route.ActionArgs) {
         return { result: submission.reply(), done: "Invite withdrawn; its link no longer works." };
     }
   } catch (e) {
-    if (e instanceof StaffRuleError) return data({ result: submission.reply({ formErrors: [e.message] }), done: null }, { status: 409 });
+    if (e instanceof StaffRuleError)
+      return data(
+        { result: submission.reply({ formErrors: [e.message] }), done: null },
+        { status: 409 },
+      );
     throw e;
   }
 }
 
-const dateFmt = new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" });
+const dateFmt = new Intl.DateTimeFormat("en-US", {
+  dateStyle: "medium",
+  timeStyle: "short",
+  timeZone: "UTC",
+});
 
 export default function Staff({ loaderData }: Route.ComponentProps) {
   const { staff, invites, me } = loaderData;
   return (
     <main className="mx-auto max-w-7xl px-4 py-8">
-      <PageHeader title="Staff" lead="Who signs in, and with which role. Changes apply on their next click." />
+      <PageHeader
+        title="Staff"
+        lead="Who signs in, and with which role. Changes apply on their next click."
+      />
       <div className="mt-6 grid gap-8 lg:grid-cols-[1fr_22rem]">
         <section aria-labelledby="accounts">
-          <h2 id="accounts" className="text-lg font-semibold text-ink">Accounts</h2>
+          <h2 id="accounts" className="text-lg font-semibold text-ink">
+            Accounts
+          </h2>
           <ul className="mt-3 divide-y divide-steel-100 rounded border border-steel-200 bg-white">
             {staff.map((u) => (
               <StaffRow key={u.id} user={u} isMe={u.id === me.id} />
@@ -94,7 +126,9 @@ export default function Staff({ loaderData }: Route.ComponentProps) {
         <aside className="space-y-8">
           <InviteForm />
           <section aria-labelledby="pending">
-            <h2 id="pending" className="text-lg font-semibold text-ink">Pending invites</h2>
+            <h2 id="pending" className="text-lg font-semibold text-ink">
+              Pending invites
+            </h2>
             {invites.length === 0 ? (
               <p className="mt-2 text-sm text-steel-700">No invite is waiting.</p>
             ) : (
@@ -103,12 +137,15 @@ export default function Staff({ loaderData }: Route.ComponentProps) {
                   <li key={i.id} className="rounded border border-steel-200 bg-white p-3 text-sm">
                     <p className="font-medium text-ink">{i.email}</p>
                     <p className="text-steel-700">
-                      {ROLE_LABELS[i.role ?? "apprentice"]} · expires <span className="num">{dateFmt.format(new Date(i.expires_at))} UTC</span>
+                      {ROLE_LABELS[i.role ?? "apprentice"]} · expires{" "}
+                      <span className="num">{dateFmt.format(new Date(i.expires_at))} UTC</span>
                     </p>
                     <Form method="post" className="mt-1">
                       <input type="hidden" name="intent" value="revoke" />
                       <input type="hidden" name="inviteId" value={i.id} />
-                      <button type="submit" className="font-medium text-red-text underline">Withdraw</button>
+                      <button type="submit" className="font-medium text-red-text underline">
+                        Withdraw
+                      </button>
                     </Form>
                   </li>
                 ))}
@@ -132,10 +169,16 @@ function InviteForm() {
   });
   return (
     <section aria-labelledby="invite-h" className="rounded border border-steel-200 bg-white p-4">
-      <h2 id="invite-h" className="text-lg font-semibold text-ink">Invite a person</h2>
-      <p className="mt-1 text-sm text-steel-700">They get a link, valid for 72 hours, to choose their name and password.</p>
+      <h2 id="invite-h" className="text-lg font-semibold text-ink">
+        Invite a person
+      </h2>
+      <p className="mt-1 text-sm text-steel-700">
+        They get a link, valid for 72 hours, to choose their name and password.
+      </p>
       <fetcher.Form method="post" {...getFormProps(form)} className="mt-3 space-y-3">
-        {fetcher.data?.done && fetcher.state === "idle" ? <Notice>{fetcher.data.done}</Notice> : null}
+        {fetcher.data?.done && fetcher.state === "idle" ? (
+          <Notice>{fetcher.data.done}</Notice>
+        ) : null}
         <FormAlert id={form.errorId} errors={formErrorsOf(form, fetcher.data?.result)} />
         <input type="hidden" name="intent" value="invite" />
         <TextField label="E-mail" field={fields.email as never} type="email" autoComplete="off" />
@@ -150,7 +193,15 @@ function InviteForm() {
 
 const ROLE_OPTIONS = ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 
-function RoleSelect({ field, label, compact }: { field: FieldMetadata<string>; label: string; compact?: boolean }) {
+function RoleSelect({
+  field,
+  label,
+  compact,
+}: {
+  field: FieldMetadata<string>;
+  label: string;
+  compact?: boolean;
+}) {
   return <SelectField field={field} label={label} labelHidden={compact} options={ROLE_OPTIONS} />;
 }
 
@@ -170,14 +221,17 @@ function StaffRow({ user, isMe }: { user: StaffUser; isMe: boolean }) {
     <li className="grid gap-3 p-4 sm:grid-cols-[1fr_17rem_auto] sm:items-start">
       <div>
         <p className="font-semibold text-ink">
-          {user.name} {isMe ? <span className="text-sm font-normal text-steel-700">(you)</span> : null}
+          {user.name}{" "}
+          {isMe ? <span className="text-sm font-normal text-steel-700">(you)</span> : null}
         </p>
         <p className="text-sm text-steel-700">{user.email}</p>
         <p className={`mt-1 text-sm font-medium ${disabled ? "text-red-text" : "text-green-text"}`}>
           {disabled ? "Disabled" : user.hasPassword ? "Active" : "Active · no password set yet"}
         </p>
         <div aria-live="polite">
-          {fetcher.data?.done && fetcher.state === "idle" ? <p className="mt-1 text-sm text-green-text">{fetcher.data.done}</p> : null}
+          {fetcher.data?.done && fetcher.state === "idle" ? (
+            <p className="mt-1 text-sm text-green-text">{fetcher.data.done}</p>
+          ) : null}
         </div>
         <FormAlert id={form.errorId} errors={formErrorsOf(form, fetcher.data?.result)} />
       </div>
@@ -187,7 +241,11 @@ function StaffRow({ user, isMe }: { user: StaffUser; isMe: boolean }) {
         <div className="flex-1">
           <RoleSelect field={fields.role as never} label={`Role of ${user.name}`} compact />
         </div>
-        <button type="submit" disabled={busy} className="rounded border border-steel-300 bg-steel-50 px-3 py-2 text-sm font-semibold text-ink hover:bg-steel-100">
+        <button
+          type="submit"
+          disabled={busy}
+          className="rounded border border-steel-300 bg-steel-50 px-3 py-2 text-sm font-semibold text-ink hover:bg-steel-100"
+        >
           Save role
         </button>
       </fetcher.Form>

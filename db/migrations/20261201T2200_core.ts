@@ -9,7 +9,9 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("city", "text", (c) => c.notNull().defaultTo(""))
     .addColumn("phone", "text", (c) => c.notNull().defaultTo(""))
     .addColumn("email", "text", (c) => c.notNull().defaultTo(""))
-    .addColumn("labour_rate_cents", "integer", (c) => c.notNull().check(sql`labour_rate_cents >= 0`))
+    .addColumn("labour_rate_cents", "integer", (c) =>
+      c.notNull().check(sql`labour_rate_cents >= 0`),
+    )
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .execute();
 
@@ -42,7 +44,9 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema
     .createTable("bikes")
     .addColumn("id", "serial", (c) => c.primaryKey())
-    .addColumn("customer_id", "integer", (c) => c.notNull().references("customers.id").onDelete("cascade"))
+    .addColumn("customer_id", "integer", (c) =>
+      c.notNull().references("customers.id").onDelete("cascade"),
+    )
     .addColumn("year", "integer", (c) => c.notNull())
     .addColumn("model", "text", (c) => c.notNull())
     .addColumn("vin", "text")

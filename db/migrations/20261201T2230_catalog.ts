@@ -19,7 +19,12 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("maker", "text", (c) => c.notNull())
     .addColumn("name", "text", (c) => c.notNull())
     .addColumn("price_cents", "integer", (c) => c.notNull().check(sql`price_cents >= 0`))
-    .addColumn("labour_hours", sql`numeric(6,2)`, (c) => c.notNull().defaultTo(0).check(sql`labour_hours >= 0`))
+    .addColumn("labour_hours", sql`numeric(6,2)`, (c) =>
+      c
+        .notNull()
+        .defaultTo(0)
+        .check(sql`labour_hours >= 0`),
+    )
     .addColumn("tags", sql`text[]`, (c) => c.notNull().defaultTo(sql`'{}'::text[]`))
     .addColumn("stock", "boolean", (c) => c.notNull().defaultTo(false))
     .addColumn("attributes", "jsonb", (c) => c.notNull().defaultTo(sql`'{}'::jsonb`))
@@ -31,7 +36,11 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("updated_by", "integer", (c) => c.references("users.id"))
     .execute();
   await sql`create unique index parts_number_key on parts (lower(part_number))`.execute(db);
-  await db.schema.createIndex("parts_category_idx").on("parts").columns(["category", "archived_at"]).execute();
+  await db.schema
+    .createIndex("parts_category_idx")
+    .on("parts")
+    .columns(["category", "archived_at"])
+    .execute();
   await sql`create index parts_tags_idx on parts using gin (tags)`.execute(db);
 
   await db.schema
@@ -50,7 +59,9 @@ export async function up(db: Kysely<any>): Promise<void> {
     .createTable("fit_rules")
     .addColumn("id", "serial", (c) => c.primaryKey())
     .addColumn("name", "text", (c) => c.notNull())
-    .addColumn("kind", "text", (c) => c.notNull().check(sql`kind in ('conflict', 'upgrade', 'caution')`))
+    .addColumn("kind", "text", (c) =>
+      c.notNull().check(sql`kind in ('conflict', 'upgrade', 'caution')`),
+    )
     .addColumn("condition", "text", (c) => c.notNull())
     .addColumn("message", "text", (c) => c.notNull())
     .addColumn("upgrade_category", "text", (c) => c.references("part_categories.slug"))
@@ -60,13 +71,18 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .addColumn("updated_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .addColumn("updated_by", "integer", (c) => c.references("users.id"))
-    .addCheckConstraint("fit_rules_upgrade_has_category", sql`kind <> 'upgrade' or upgrade_category is not null`)
+    .addCheckConstraint(
+      "fit_rules_upgrade_has_category",
+      sql`kind <> 'upgrade' or upgrade_category is not null`,
+    )
     .execute();
 
   await db.schema
     .createTable("fit_rule_versions")
     .addColumn("id", "serial", (c) => c.primaryKey())
-    .addColumn("rule_id", "integer", (c) => c.notNull().references("fit_rules.id").onDelete("cascade"))
+    .addColumn("rule_id", "integer", (c) =>
+      c.notNull().references("fit_rules.id").onDelete("cascade"),
+    )
     .addColumn("version", "integer", (c) => c.notNull())
     .addColumn("name", "text", (c) => c.notNull())
     .addColumn("kind", "text", (c) => c.notNull())

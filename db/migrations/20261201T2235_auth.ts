@@ -40,8 +40,16 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("succeeded", "boolean", (c) => c.notNull())
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .execute();
-  await db.schema.createIndex("login_attempts_email_idx").on("login_attempts").columns(["email", "created_at"]).execute();
-  await db.schema.createIndex("login_attempts_ip_idx").on("login_attempts").columns(["ip", "created_at"]).execute();
+  await db.schema
+    .createIndex("login_attempts_email_idx")
+    .on("login_attempts")
+    .columns(["email", "created_at"])
+    .execute();
+  await db.schema
+    .createIndex("login_attempts_ip_idx")
+    .on("login_attempts")
+    .columns(["ip", "created_at"])
+    .execute();
 
   await db.schema
     .createTable("mail_messages")
@@ -52,7 +60,10 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("text_body", "text", (c) => c.notNull())
     .addColumn("html_body", "text")
     .addColumn("status", "text", (c) =>
-      c.notNull().defaultTo("queued").check(sql`status in ('queued', 'sent', 'failed')`),
+      c
+        .notNull()
+        .defaultTo("queued")
+        .check(sql`status in ('queued', 'sent', 'failed')`),
     )
     .addColumn("attempts", "integer", (c) => c.notNull().defaultTo(0))
     .addColumn("last_error", "text")

@@ -14,12 +14,16 @@ export async function up(db: Kysely<any>): Promise<void> {
       c
         .notNull()
         .defaultTo("draft")
-        .check(sql`status in ('draft', 'quoted', 'approved', 'in_build', 'on_dyno', 'delivered', 'cancelled')`),
+        .check(
+          sql`status in ('draft', 'quoted', 'approved', 'in_build', 'on_dyno', 'delivered', 'cancelled')`,
+        ),
     )
     .addColumn("builder_id", "integer", (c) => c.references("users.id").onDelete("set null"))
     .addColumn("rev_limit_rpm", "integer")
     .addColumn("power_hp", sql`numeric(7,1)`)
-    .addColumn("power_basis", "text", (c) => c.check(sql`power_basis is null or power_basis in ('target', 'estimate', 'measured')`))
+    .addColumn("power_basis", "text", (c) =>
+      c.check(sql`power_basis is null or power_basis in ('target', 'estimate', 'measured')`),
+    )
     .addColumn("notes", "text", (c) => c.notNull().defaultTo(""))
     .addColumn("copied_from_id", "integer", (c) => c.references("packages.id").onDelete("set null"))
     // the optimistic-concurrency token: a save names the revision it was based on
@@ -32,17 +36,26 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("created_by", "integer", (c) => c.references("users.id").onDelete("set null"))
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .addColumn("updated_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
-    .addCheckConstraint("packages_template_has_no_bike", sql`not (is_template and bike_id is not null)`)
+    .addCheckConstraint(
+      "packages_template_has_no_bike",
+      sql`not (is_template and bike_id is not null)`,
+    )
     .addCheckConstraint("packages_bike_or_template", sql`is_template or bike_id is not null`)
     .execute();
-  await db.schema.createIndex("packages_status_idx").on("packages").columns(["status", "updated_at"]).execute();
+  await db.schema
+    .createIndex("packages_status_idx")
+    .on("packages")
+    .columns(["status", "updated_at"])
+    .execute();
   await db.schema.createIndex("packages_bike_idx").on("packages").column("bike_id").execute();
   await db.schema.createIndex("packages_builder_idx").on("packages").column("builder_id").execute();
 
   await db.schema
     .createTable("package_revisions")
     .addColumn("id", "serial", (c) => c.primaryKey())
-    .addColumn("package_id", "integer", (c) => c.notNull().references("packages.id").onDelete("cascade"))
+    .addColumn("package_id", "integer", (c) =>
+      c.notNull().references("packages.id").onDelete("cascade"),
+    )
     .addColumn("revision", "integer", (c) => c.notNull())
     .addColumn("spec", "jsonb", (c) => c.notNull())
     .addColumn("results", "jsonb", (c) => c.notNull())
@@ -57,18 +70,31 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema
     .createTable("package_status_changes")
     .addColumn("id", "serial", (c) => c.primaryKey())
-    .addColumn("package_id", "integer", (c) => c.notNull().references("packages.id").onDelete("cascade"))
+    .addColumn("package_id", "integer", (c) =>
+      c.notNull().references("packages.id").onDelete("cascade"),
+    )
     .addColumn("from_status", "text")
     .addColumn("to_status", "text", (c) => c.notNull())
     .addColumn("changed_by", "integer", (c) => c.references("users.id").onDelete("set null"))
     .addColumn("changed_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .execute();
-  await db.schema.createIndex("package_status_changes_pkg_idx").on("package_status_changes").column("package_id").execute();
+  await db.schema
+    .createIndex("package_status_changes_pkg_idx")
+    .on("package_status_changes")
+    .column("package_id")
+    .execute();
 
   await db.schema
     .createTable("user_preferences")
-    .addColumn("user_id", "integer", (c) => c.primaryKey().references("users.id").onDelete("cascade"))
-    .addColumn("units", "text", (c) => c.notNull().defaultTo("inch").check(sql`units in ('inch', 'metric')`))
+    .addColumn("user_id", "integer", (c) =>
+      c.primaryKey().references("users.id").onDelete("cascade"),
+    )
+    .addColumn("units", "text", (c) =>
+      c
+        .notNull()
+        .defaultTo("inch")
+        .check(sql`units in ('inch', 'metric')`),
+    )
     .addColumn("updated_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .execute();
 }

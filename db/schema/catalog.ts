@@ -25,7 +25,11 @@ export interface PartTable {
   labour_hours: ColumnType<number, number | undefined, number>;
   tags: ColumnType<string[], string[] | undefined, string[]>;
   stock: Generated<boolean>;
-  attributes: ColumnType<PartAttributes, PartAttributes | string | undefined, PartAttributes | string>;
+  attributes: ColumnType<
+    PartAttributes,
+    PartAttributes | string | undefined,
+    PartAttributes | string
+  >;
   notes: Generated<string>;
   version: Generated<number>;
   archived_at: Timestamp | null;

@@ -1,7 +1,15 @@
 import type { ColumnType, Generated, Selectable } from "kysely";
 import type { Timestamp } from "./core";
 
-export const PACKAGE_STATUSES = ["draft", "quoted", "approved", "in_build", "on_dyno", "delivered", "cancelled"] as const;
+export const PACKAGE_STATUSES = [
+  "draft",
+  "quoted",
+  "approved",
+  "in_build",
+  "on_dyno",
+  "delivered",
+  "cancelled",
+] as const;
 export type PackageStatus = (typeof PACKAGE_STATUSES)[number];
 
 export const POWER_BASES = ["target", "estimate", "measured"] as const;
@@ -26,16 +34,16 @@ export interface PackageTable {
   copied_from_id: number | null;
   /** The optimistic-concurrency token: the revision number a bench save must name. */
   current_revision: Generated<number>;
-  /** Current revision's spec (BenchSpec in app/lib/bench.ts). */
+  /** Current revision's spec (BenchSpec in app/lib/bench/spec.ts). */
   spec: JsonCol<unknown>;
   /** Current revision's computed figures (calc's SpecResults, or null fields). */
   results: JsonCol<unknown>;
   /**
-   * Current revision's fit-rule snapshot (PackageSnapshot from app/lib/rule-snapshot.ts):
+   * Current revision's fit-rule snapshot (PackageSnapshot from app/lib/fit-rules/snapshot.ts):
    * what the rules are evaluated against. Rule previews read this column.
    */
   rule_snapshot: JsonCol<unknown>;
-  /** Current revision's findings (Finding[] from app/lib/fit-rules.server.ts). */
+  /** Current revision's findings (Finding[] from app/lib/fit-rules/rules.server.ts). */
   findings: JsonCol<unknown>;
   created_by: number | null;
   created_at: Timestamp;

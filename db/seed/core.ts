@@ -25,7 +25,15 @@ const CUSTOMERS = [
     phone: "555-0181",
     city: "Millbrook Falls",
     notes: "Two-up touring most weekends; wants passing power at highway speed.",
-    bikes: [{ year: 2019, model: "Corvane Longhaul LT", vin: "DEMO1LH19000001", engine_ci: 107, mileage: 38200 }],
+    bikes: [
+      {
+        year: 2019,
+        model: "Corvane Longhaul LT",
+        vin: "DEMO1LH19000001",
+        engine_ci: 107,
+        mileage: 38200,
+      },
+    ],
   },
   {
     name: "Priya Santangelo",
@@ -33,7 +41,15 @@ const CUSTOMERS = [
     phone: "555-0112",
     city: "Oak Hollow",
     notes: "Rides mountain passes; prefers torque over peak numbers.",
-    bikes: [{ year: 2021, model: "Corvane Northbound", vin: "DEMO1NB21000002", engine_ci: 114, mileage: 12900 }],
+    bikes: [
+      {
+        year: 2021,
+        model: "Corvane Northbound",
+        vin: "DEMO1NB21000002",
+        engine_ci: 114,
+        mileage: 12900,
+      },
+    ],
   },
   {
     name: "Walt Berglund",
@@ -42,8 +58,20 @@ const CUSTOMERS = [
     city: "Cedar Run",
     notes: "Drag-strip nights; knows the bike will see 14-inch risers next season.",
     bikes: [
-      { year: 2017, model: "Brisa Vanta 103", vin: "DEMO1BV17000003", engine_ci: 103, mileage: 51400 },
-      { year: 2022, model: "Corvane Longhaul LT", vin: "DEMO1LH22000004", engine_ci: 114, mileage: 6100 },
+      {
+        year: 2017,
+        model: "Brisa Vanta 103",
+        vin: "DEMO1BV17000003",
+        engine_ci: 103,
+        mileage: 51400,
+      },
+      {
+        year: 2022,
+        model: "Corvane Longhaul LT",
+        vin: "DEMO1LH22000004",
+        engine_ci: 114,
+        mileage: 6100,
+      },
     ],
   },
   {
@@ -52,7 +80,15 @@ const CUSTOMERS = [
     phone: "555-0127",
     city: "Millbrook Falls",
     notes: "Daily rider; budget-minded; pump fuel only.",
-    bikes: [{ year: 2020, model: "Brisa Vanta 114", vin: "DEMO1BV20000005", engine_ci: 114, mileage: 27750 }],
+    bikes: [
+      {
+        year: 2020,
+        model: "Brisa Vanta 114",
+        vin: "DEMO1BV20000005",
+        engine_ci: 114,
+        mileage: 27750,
+      },
+    ],
   },
   {
     name: "Cal Montrose",
@@ -60,7 +96,15 @@ const CUSTOMERS = [
     phone: "555-0190",
     city: "Oak Hollow",
     notes: "Cross-country trip in spring; reliability first.",
-    bikes: [{ year: 2018, model: "Corvane Northbound", vin: "DEMO1NB18000006", engine_ci: 107, mileage: 64300 }],
+    bikes: [
+      {
+        year: 2018,
+        model: "Corvane Northbound",
+        vin: "DEMO1NB18000006",
+        engine_ci: 107,
+        mileage: 64300,
+      },
+    ],
   },
 ];
 
@@ -71,9 +115,16 @@ export async function seedCore(db: Kysely<Database>) {
     .values(DEMO_STAFF.map((s) => ({ ...s, password_hash: null })))
     .execute();
   for (const { bikes, ...customer } of CUSTOMERS) {
-    const { id } = await db.insertInto("customers").values(customer).returning("id").executeTakeFirstOrThrow();
+    const { id } = await db
+      .insertInto("customers")
+      .values(customer)
+      .returning("id")
+      .executeTakeFirstOrThrow();
     for (const bike of bikes) {
-      await db.insertInto("bikes").values({ ...bike, customer_id: id, notes: "" }).execute();
+      await db
+        .insertInto("bikes")
+        .values({ ...bike, customer_id: id, notes: "" })
+        .execute();
     }
   }
 }

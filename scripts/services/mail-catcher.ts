@@ -28,7 +28,9 @@ export type MailCatcher = {
   stop: () => Promise<void>;
 };
 
-export async function startMailCatcher(opts: { smtpPort?: number; apiPort?: number; quiet?: boolean } = {}): Promise<MailCatcher> {
+export async function startMailCatcher(
+  opts: { smtpPort?: number; apiPort?: number; quiet?: boolean } = {},
+): Promise<MailCatcher> {
   const messages: CaughtMessage[] = [];
   let counter = 0;
 
@@ -46,14 +48,17 @@ export async function startMailCatcher(opts: { smtpPort?: number; apiPort?: numb
           messages.push({
             id: String(counter),
             messageId: parsed.messageId ?? null,
-            from: parsed.from?.text ?? (session.envelope.mailFrom ? session.envelope.mailFrom.address : ""),
+            from:
+              parsed.from?.text ??
+              (session.envelope.mailFrom ? session.envelope.mailFrom.address : ""),
             to,
             subject: parsed.subject ?? "",
             text: parsed.text ?? "",
             html: typeof parsed.html === "string" ? parsed.html : null,
             receivedAt: new Date().toISOString(),
           });
-          if (!opts.quiet) console.log(`mail: caught "${parsed.subject ?? ""}" for ${to.join(", ")}`);
+          if (!opts.quiet)
+            console.log(`mail: caught "${parsed.subject ?? ""}" for ${to.join(", ")}`);
           callback();
         })
         .catch((e: Error) => callback(e));

@@ -13,7 +13,10 @@ test("an invite goes out by e-mail and its link creates the account", async ({ p
   await page.getByRole("button", { name: "Send invite" }).click();
   await expect(page.getByText(`Invite sent to ${email}.`)).toBeVisible();
 
-  await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Outbox" }).click();
+  await page
+    .getByRole("navigation", { name: "Main" })
+    .getByRole("link", { name: "Outbox" })
+    .click();
   await expect(page).toHaveURL(/\/dev\/outbox$/);
   const row = page.getByRole("row", { name: new RegExp(email.replace(/[.]/g, "\\.")) });
   await expect(async () => {

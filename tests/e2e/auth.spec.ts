@@ -3,7 +3,12 @@ import { DEMO_PASSWORD } from "../../db/seed/auth";
 import { DEMO_STAFF } from "../../db/seed/core";
 import { loginAs } from "./support/login";
 
-const ROLE_LABEL = { owner: "Owner", builder: "Builder", service_writer: "Service writer", apprentice: "Apprentice" } as const;
+const ROLE_LABEL = {
+  owner: "Owner",
+  builder: "Builder",
+  service_writer: "Service writer",
+  apprentice: "Apprentice",
+} as const;
 
 for (const person of DEMO_STAFF) {
   test(`${person.role} signs in with the password and signs out`, async ({ page }) => {
@@ -17,7 +22,9 @@ for (const person of DEMO_STAFF) {
     await expect(who).toContainText(person.name);
     await expect(who).toContainText(ROLE_LABEL[person.role]);
     const nav = page.getByRole("navigation", { name: "Main" });
-    await expect(nav.getByRole("link", { name: "Staff" })).toHaveCount(person.role === "owner" ? 1 : 0);
+    await expect(nav.getByRole("link", { name: "Staff" })).toHaveCount(
+      person.role === "owner" ? 1 : 0,
+    );
 
     await page.getByRole("button", { name: "Sign out" }).click();
     await expect(page).toHaveURL(/\/login$/);
@@ -31,7 +38,9 @@ test("a wrong password shows the error and keeps the e-mail filled", async ({ pa
   await page.getByLabel("E-mail").fill("rui@tallgrass.test");
   await page.getByLabel("Password").fill("not-the-password");
   await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page.getByRole("alert")).toHaveText("That e-mail and password do not match an active account.");
+  await expect(page.getByRole("alert")).toHaveText(
+    "That e-mail and password do not match an active account.",
+  );
   await expect(page.getByLabel("E-mail")).toHaveValue("rui@tallgrass.test");
   await expect(page.getByLabel("Password")).toHaveValue("");
 
@@ -63,5 +72,6 @@ test("a role without the page gets the 403 page in the product's look", async ({
 test("the owner sees the staff list with every demo account", async ({ page }) => {
   await loginAs(page, "owner");
   await page.goto("/staff");
-  for (const person of DEMO_STAFF) await expect(page.getByText(person.email, { exact: true })).toBeVisible();
+  for (const person of DEMO_STAFF)
+    await expect(page.getByText(person.email, { exact: true })).toBeVisible();
 });

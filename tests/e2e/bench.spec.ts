@@ -2,7 +2,7 @@
 // figures and a finding, reload to the saved state, and a stale save from a second tab.
 import { expect, test, type Page } from "@playwright/test";
 import { createDb } from "../../db/connect";
-import { SLOT_BY_KEY } from "../../app/lib/slots";
+import { SLOT_BY_KEY } from "../../app/lib/packages/slots";
 import { e2eDatabaseUrl } from "../support/db-url";
 import { loginAs } from "./support/login";
 
@@ -11,10 +11,18 @@ const SHOTS = ".data/test-results/screenshots";
 async function freshPackage(name: string): Promise<number> {
   const db = createDb(e2eDatabaseUrl(), 1);
   try {
-    const { createPackage } = await import("../../app/lib/packages.server");
+    const { createPackage } = await import("../../app/lib/packages/store.server");
     const bike = await db.selectFrom("bikes").select("id").orderBy("id").executeTakeFirstOrThrow();
-    const builder = await db.selectFrom("users").select("id").where("role", "=", "builder").executeTakeFirstOrThrow();
-    return await createPackage(db, { name, bikeId: bike.id, isTemplate: false, builderId: builder.id }, builder.id);
+    const builder = await db
+      .selectFrom("users")
+      .select("id")
+      .where("role", "=", "builder")
+      .executeTakeFirstOrThrow();
+    return await createPackage(
+      db,
+      { name, bikeId: bike.id, isTemplate: false, builderId: builder.id },
+      builder.id,
+    );
   } finally {
     await db.destroy();
   }
@@ -57,11 +65,15 @@ async function drag(page: Page, partNumber: string, slot: string) {
 // when the shelf shows only what matches, and not before: the list changes under the mouse.
 async function search(page: Page, q: string) {
   await page.getByPlaceholder("Search number, name, tag…").fill(q);
-  await expect(page.getByTestId("shelf-list").locator("li").filter({ hasNotText: q })).toHaveCount(0);
+  await expect(page.getByTestId("shelf-list").locator("li").filter({ hasNotText: q })).toHaveCount(
+    0,
+  );
   await expect(page.getByTestId(`part-${q}`)).toBeVisible();
 }
 
-test("a builder drags parts onto the slots, sees figures and a finding, and the save survives a reload", async ({ page }) => {
+test("a builder drags parts onto the slots, sees figures and a finding, and the save survives a reload", async ({
+  page,
+}) => {
   // a long journey (six drops, a reload, two widths: about 90 browser steps) on a shared machine
   test.setTimeout(60_000);
   const id = await freshPackage("E2E drag test");
@@ -95,7 +107,9 @@ test("a builder drags parts onto the slots, sees figures and a finding, and the 
   await expect(announced(page)).toContainText("placed in the cam slot");
 
   await expect(page.getByTestId("result-displacementCi")).toContainText("113.");
-  await expect(page.getByTestId("finding-conflict")).toContainText("Head gasket bore smaller than the cylinder bore");
+  await expect(page.getByTestId("finding-conflict")).toContainText(
+    "Head gasket bore smaller than the cylinder bore",
+  );
   await expect(page.getByText("saving…")).toHaveCount(0);
   // the work shown is built in the browser from the saved spec
   await page.getByText("Show the work").click();
@@ -125,7 +139,9 @@ test("a builder drags parts onto the slots, sees figures and a finding, and the 
   await page.screenshot({ path: `${SHOTS}/bench-390-slots.png` });
 });
 
-test("two tabs on one package: the stale save is refused with what changed, and can be applied on top", async ({ browser }) => {
+test("two tabs on one package: the stale save is refused with what changed, and can be applied on top", async ({
+  browser,
+}) => {
   const id = await freshPackage("E2E two tabs");
   const a = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
   const b = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
@@ -135,9 +151,15 @@ test("two tabs on one package: the stale save is refused with what changed, and 
   const pb = await b.newPage();
   await openBench(pa, id);
   await openBench(pb, id);
-  await pa.getByTestId("slot-cylinder").getByRole("combobox").selectOption({ label: "TW-CYL-1048 · Big-bore cylinder pair, 104.8 mm" });
+  await pa
+    .getByTestId("slot-cylinder")
+    .getByRole("combobox")
+    .selectOption({ label: "TW-CYL-1048 · Big-bore cylinder pair, 104.8 mm" });
   await expect(pa.getByTestId("revision")).toHaveText("revision 2");
-  await pb.getByTestId("slot-flywheel").getByRole("combobox").selectOption({ label: "TW-FLY-1175 · Stroker flywheel assembly, 117.5 mm" });
+  await pb
+    .getByTestId("slot-flywheel")
+    .getByRole("combobox")
+    .selectOption({ label: "TW-FLY-1175 · Stroker flywheel assembly, 117.5 mm" });
   const notice = pb.getByTestId("stale-notice");
   await expect(notice).toBeVisible();
   await expect(notice).toContainText("Bore (cylinders)");
@@ -150,11 +172,17 @@ test("two tabs on one package: the stale save is refused with what changed, and 
   await b.close();
 });
 
-test("an impossible measured value is refused beside its slot, keeps what was typed, and saves nothing", async ({ page, context }) => {
+test("an impossible measured value is refused beside its slot, keeps what was typed, and saves nothing", async ({
+  page,
+  context,
+}) => {
   const id = await freshPackage("E2E refused measurement");
   await loginAs(context, "builder");
   await openBench(page, id);
-  await page.getByTestId("slot-head").getByRole("combobox").selectOption({ label: "TW-HD-0845 · Ported heads, 84.5 cc" });
+  await page
+    .getByTestId("slot-head")
+    .getByRole("combobox")
+    .selectOption({ label: "TW-HD-0845 · Ported heads, 84.5 cc" });
   await expect(page.getByTestId("revision")).toHaveText("revision 2");
   const chamber = page.getByTestId("field-chamberCc");
   await chamber.getByRole("button", { name: "Enter measured" }).click();

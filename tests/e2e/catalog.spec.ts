@@ -1,7 +1,9 @@
 import { expect, test } from "@playwright/test";
 import { loginAs } from "./support/login";
 
-test("the owner adds a part: a bad bore is refused beside its field, the rest is kept, the fix saves", async ({ page }) => {
+test("the owner adds a part: a bad bore is refused beside its field, the rest is kept, the fix saves", async ({
+  page,
+}) => {
   const pn = `TW-E2E-${Date.now().toString(36).toUpperCase()}`;
   await loginAs(page, "owner");
   await page.goto("/parts/new");
@@ -15,7 +17,9 @@ test("the owner adds a part: a bad bore is refused beside its field, the rest is
   await page.getByRole("button", { name: "Add to the shelf" }).click();
   await expect(bore).toHaveAttribute("aria-invalid", "true");
   const describedBy = (await bore.getAttribute("aria-describedby")) ?? "";
-  await expect(page.locator(`[id="${describedBy.split(" ").find((id) => id.endsWith("-error"))}"]`)).toHaveText("Bore must be between 50 and 130 mm");
+  await expect(
+    page.locator(`[id="${describedBy.split(" ").find((id) => id.endsWith("-error"))}"]`),
+  ).toHaveText("Bore must be between 50 and 130 mm");
   await expect(page.getByLabel("Maker")).toHaveValue("Ironvale");
   await expect(page.getByLabel("Part number")).toHaveValue(pn);
   await bore.fill("104.8");
@@ -29,7 +33,9 @@ test("the owner adds a part: a bad bore is refused beside its field, the rest is
   await expect(first).toContainText("First version.");
 });
 
-test("the owner writes a rule: a forbidden expression is refused with a message, a good one previews and saves", async ({ page }) => {
+test("the owner writes a rule: a forbidden expression is refused with a message, a good one previews and saves", async ({
+  page,
+}) => {
   await loginAs(page, "owner");
   await page.goto("/rules/new");
   const form = page.locator("form#rule");
@@ -44,7 +50,9 @@ test("the owner writes a rule: a forbidden expression is refused with a message,
   await expect(form.getByLabel("Message for the staff")).toHaveValue("Check the adjusters.");
   await condition.fill('power_hp > 145 and has("stock-axle-adjusters")');
   await form.getByRole("button", { name: "Preview on saved packages" }).click();
-  await expect(page.getByRole("heading", { name: /Preview against \d+ saved package/ })).toBeVisible();
+  await expect(
+    page.getByRole("heading", { name: /Preview against \d+ saved package/ }),
+  ).toBeVisible();
   await expect(page.getByRole("heading", { name: /Would start flagging/ })).toBeVisible();
   await form.getByRole("button", { name: "Save rule" }).click();
   await expect(page).toHaveURL(/\/rules\/\d+\?saved=1$/);
@@ -62,7 +70,9 @@ test("the owner writes a rule: a forbidden expression is refused with a message,
   await expect(change.locator("del", { hasText: "power_hp > 145" })).toHaveClass(/font-mono/);
 });
 
-test("the owner checks a CSV file: the bad row is shown with its reason, and nothing is written", async ({ page }) => {
+test("the owner checks a CSV file: the bad row is shown with its reason, and nothing is written", async ({
+  page,
+}) => {
   const stamp = Date.now().toString(36).toUpperCase();
   const good = `TW-E2E-IMP-${stamp}-A`;
   const bad = `TW-E2E-IMP-${stamp}-B`;
@@ -73,9 +83,13 @@ test("the owner checks a CSV file: the bad row is shown with its reason, and not
   ].join("\n");
   await loginAs(page, "owner");
   await page.goto("/parts/import");
-  await page.getByLabel("CSV file").setInputFiles({ name: "parts.csv", mimeType: "text/csv", buffer: Buffer.from(csv) });
+  await page
+    .getByLabel("CSV file")
+    .setInputFiles({ name: "parts.csv", mimeType: "text/csv", buffer: Buffer.from(csv) });
   await page.getByRole("button", { name: "Check the file" }).click();
-  await expect(page.getByRole("heading", { name: "2 rows: 1 valid, 1 with problems" })).toBeVisible();
+  await expect(
+    page.getByRole("heading", { name: "2 rows: 1 valid, 1 with problems" }),
+  ).toBeVisible();
   const problem = page.getByRole("listitem").filter({ hasText: bad });
   await expect(problem).toContainText("Line 3");
   await expect(problem).toContainText("Bore must be between 50 and 130 mm");

@@ -1,7 +1,9 @@
 import { expect, test } from "@playwright/test";
 import { loginAs } from "./support/login";
 
-test("home page shows the shop in the product's look, with Barlow from the app's own assets", async ({ page }) => {
+test("home page shows the shop in the product's look, with Barlow from the app's own assets", async ({
+  page,
+}) => {
   const fontRequests: string[] = [];
   page.on("request", (r) => {
     if (r.resourceType() === "font") fontRequests.push(r.url());
@@ -17,7 +19,9 @@ test("home page shows the shop in the product's look, with Barlow from the app's
   expect(loaded).toBe(true);
   expect(fontRequests.length).toBeGreaterThan(0);
   for (const url of fontRequests) expect(new URL(url).host).toBe(new URL(page.url()).host);
-  const headerBg = await page.locator("header").evaluate((el) => getComputedStyle(el).backgroundColor);
+  const headerBg = await page
+    .locator("header")
+    .evaluate((el) => getComputedStyle(el).backgroundColor);
   expect(headerBg).toBe("rgb(13, 27, 42)"); // ink #0d1b2a
 });
 

@@ -35,7 +35,13 @@ type Row = {
   expect: Record<Who, Outcome>;
 };
 
-const all = (o: Outcome): Row["expect"] => ({ signedOut: o, owner: o, builder: o, service_writer: o, apprentice: o });
+const all = (o: Outcome): Row["expect"] => ({
+  signedOut: o,
+  owner: o,
+  builder: o,
+  service_writer: o,
+  apprentice: o,
+});
 /** Signed-out visitors go to sign-in; the listed roles get `ok`, the others 403. */
 const staffOnly = (...roles: Role[]): Row["expect"] => ({
   signedOut: "login",
@@ -44,7 +50,13 @@ const staffOnly = (...roles: Role[]): Row["expect"] => ({
   service_writer: roles.includes("service_writer") ? "ok" : 403,
   apprentice: roles.includes("apprentice") ? "ok" : 403,
 });
-const signedInRedirect: Row["expect"] = { signedOut: "ok", owner: "redirect", builder: "redirect", service_writer: "redirect", apprentice: "redirect" };
+const signedInRedirect: Row["expect"] = {
+  signedOut: "ok",
+  owner: "redirect",
+  builder: "redirect",
+  service_writer: "redirect",
+  apprentice: "redirect",
+};
 
 export const ROWS: Row[] = [
   { path: "/", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
@@ -60,36 +72,140 @@ export const ROWS: Row[] = [
   { path: "/reset/not-a-token", expect: all("ok") },
   { path: "/reset/not-a-token", method: "POST", body: { password: "" }, expect: all("ok") },
   { path: "/staff", expect: staffOnly("owner") },
-  { path: "/staff", method: "POST", body: { intent: "invite", email: "" }, expect: staffOnly("owner") },
+  {
+    path: "/staff",
+    method: "POST",
+    body: { intent: "invite", email: "" },
+    expect: staffOnly("owner"),
+  },
   { path: "/dev/outbox", expect: staffOnly("owner") },
   { path: "/dev/outbox/999999", expect: { ...staffOnly("owner"), owner: 404 } },
   { path: "/packages", expect: staffOnly("owner", "builder", "service_writer") },
   { path: "/packages/new", expect: staffOnly("owner", "builder", "service_writer") },
-  { path: "/packages/new", method: "POST", body: { mode: "scratch", name: "" }, expect: staffOnly("owner", "builder", "service_writer") },
-  { path: "/packages/999999", expect: { ...staffOnly("owner", "builder", "service_writer"), owner: 404, builder: 404, service_writer: 404 } },
-  { path: "/packages/999999", method: "POST", body: { intent: "status", to: "quoted" }, expect: staffOnly("owner", "builder", "service_writer") },
-  { path: "/packages/999999", method: "POST", body: { intent: "restore", revision: "1", expectedRevision: "1" }, expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 } },
-  { path: "/packages/999999/bench", expect: { ...staffOnly("owner", "builder", "service_writer"), owner: 404, builder: 404, service_writer: 404 } },
-  { path: "/packages/999999/bench", method: "POST", body: { intent: "set-units", units: "metric" }, expect: staffOnly("owner", "builder", "service_writer") },
-  { path: "/packages/999999/bench", method: "POST", body: { intent: "clear-slot", slot: "cam", expectedRevision: "1" }, expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 } },
+  {
+    path: "/packages/new",
+    method: "POST",
+    body: { mode: "scratch", name: "" },
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
+    path: "/packages/999999",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
+  {
+    path: "/packages/999999",
+    method: "POST",
+    body: { intent: "status", to: "quoted" },
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
+    path: "/packages/999999",
+    method: "POST",
+    body: { intent: "restore", revision: "1", expectedRevision: "1" },
+    expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
+  },
+  {
+    path: "/packages/999999/bench",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
+  {
+    path: "/packages/999999/bench",
+    method: "POST",
+    body: { intent: "set-units", units: "metric" },
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
+    path: "/packages/999999/bench",
+    method: "POST",
+    body: { intent: "clear-slot", slot: "cam", expectedRevision: "1" },
+    expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
+  },
   // JSON routes answer 401 instead of sending a signed-out caller to the sign-in form
-  { path: "/api/parts", expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), signedOut: 401 } },
-  { path: "/api/packages/999999", expect: { ...staffOnly("owner", "builder", "service_writer"), signedOut: 401, owner: 404, builder: 404, service_writer: 404 } },
-  { path: "/api/calc", method: "POST", body: { boreMm: "x" }, expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), signedOut: 401 } },
+  {
+    path: "/api/parts",
+    expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), signedOut: 401 },
+  },
+  {
+    path: "/api/packages/999999",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      signedOut: 401,
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
+  {
+    path: "/api/calc",
+    method: "POST",
+    body: { boreMm: "x" },
+    expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), signedOut: 401 },
+  },
   { path: "/parts", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
   { path: "/parts", method: "POST", body: { label: "" }, expect: staffOnly("owner") },
   { path: "/parts/new", expect: staffOnly("owner") },
   { path: "/parts/new", method: "POST", body: { part_number: "" }, expect: staffOnly("owner") },
   { path: "/parts/import", expect: staffOnly("owner") },
-  { path: "/parts/import", method: "POST", body: { intent: "preview" }, expect: staffOnly("owner") },
-  { path: "/parts/export.csv", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
-  { path: "/parts/999999", expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), owner: 404, builder: 404, service_writer: 404, apprentice: 404 } },
-  { path: "/parts/999999", method: "POST", body: { intent: "archive" }, expect: { ...staffOnly("owner"), owner: 404 } },
+  {
+    path: "/parts/import",
+    method: "POST",
+    body: { intent: "preview" },
+    expect: staffOnly("owner"),
+  },
+  {
+    path: "/parts/export.csv",
+    expect: staffOnly("owner", "builder", "service_writer", "apprentice"),
+  },
+  {
+    path: "/parts/999999",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer", "apprentice"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+      apprentice: 404,
+    },
+  },
+  {
+    path: "/parts/999999",
+    method: "POST",
+    body: { intent: "archive" },
+    expect: { ...staffOnly("owner"), owner: 404 },
+  },
   { path: "/rules", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
   { path: "/rules/new", expect: staffOnly("owner") },
-  { path: "/rules/new", method: "POST", body: { intent: "save", name: "" }, expect: staffOnly("owner") },
-  { path: "/rules/999999", expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), owner: 404, builder: 404, service_writer: 404, apprentice: 404 } },
-  { path: "/rules/999999", method: "POST", body: { intent: "save" }, expect: { ...staffOnly("owner"), owner: 404 } },
+  {
+    path: "/rules/new",
+    method: "POST",
+    body: { intent: "save", name: "" },
+    expect: staffOnly("owner"),
+  },
+  {
+    path: "/rules/999999",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer", "apprentice"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+      apprentice: 404,
+    },
+  },
+  {
+    path: "/rules/999999",
+    method: "POST",
+    body: { intent: "save" },
+    expect: { ...staffOnly("owner"), owner: 404 },
+  },
   { path: "/no-such-page", expect: all(404) },
 ];
 
@@ -98,15 +214,26 @@ export const ROWS: Row[] = [
 type Module = { loader?: (args: unknown) => unknown; action?: (args: unknown) => unknown };
 const modules = import.meta.glob<Module>("../../app/routes/*.{ts,tsx}");
 
-type ConfigEntry = { id?: string; path?: string; index?: boolean; file: string; children?: ConfigEntry[] };
+type ConfigEntry = {
+  id?: string;
+  path?: string;
+  index?: boolean;
+  file: string;
+  children?: ConfigEntry[];
+};
 const toObjects = (entries: ConfigEntry[]): RouteObject[] =>
   entries.map((e) =>
     e.index
       ? ({ id: e.file, index: true } as RouteObject)
-      : ({ id: e.file, path: e.path, children: e.children ? toObjects(e.children) : undefined } as RouteObject),
+      : ({
+          id: e.file,
+          path: e.path,
+          children: e.children ? toObjects(e.children) : undefined,
+        } as RouteObject),
   );
 const routeObjects = toObjects(routeConfig as ConfigEntry[]);
-const configFiles = (entries: ConfigEntry[]): string[] => entries.flatMap((e) => [e.file, ...configFiles(e.children ?? [])]);
+const configFiles = (entries: ConfigEntry[]): string[] =>
+  entries.flatMap((e) => [e.file, ...configFiles(e.children ?? [])]);
 
 async function dispatch(request: Request): Promise<unknown> {
   const url = new URL(request.url);
@@ -127,14 +254,24 @@ function classify(value: unknown): Outcome | `status ${number}` {
   if (value instanceof Response) {
     status = value.status;
     location = value.headers.get("Location");
-  } else if (value && typeof value === "object" && (value as { type?: string }).type === "DataWithResponseInit") {
+  } else if (
+    value &&
+    typeof value === "object" &&
+    (value as { type?: string }).type === "DataWithResponseInit"
+  ) {
     status = (value as { init?: { status?: number } }).init?.status ?? 200;
   }
   if (status >= 300 && status < 400) return location?.startsWith("/login") ? "login" : "redirect";
   if (status === 403) return 403;
   if (status === 404) return 404;
-  if (status < 300 || (status >= 400 && status < 500 && status !== 401 && status !== 405)) return "ok";
-  if (status === 401 && value instanceof Response && value.headers.get("Content-Type")?.includes("json")) return 401; // a JSON route, signed out
+  if (status < 300 || (status >= 400 && status < 500 && status !== 401 && status !== 405))
+    return "ok";
+  if (
+    status === 401 &&
+    value instanceof Response &&
+    value.headers.get("Content-Type")?.includes("json")
+  )
+    return 401; // a JSON route, signed out
   if (status === 401) return "ok"; // the sign-in form answering a wrong password
   return `status ${status}`;
 }
@@ -143,14 +280,16 @@ async function outcome(request: Request) {
   try {
     return classify(await dispatch(request));
   } catch (thrown) {
-    if (thrown instanceof Response || (thrown && typeof thrown === "object" && "init" in thrown)) return classify(thrown);
+    if (thrown instanceof Response || (thrown && typeof thrown === "object" && "init" in thrown))
+      return classify(thrown);
     throw thrown;
   }
 }
 
 const users = {} as Record<Role, TestUser>;
 beforeAll(async () => {
-  for (const role of ["owner", "builder", "service_writer", "apprentice"] as const) users[role] = await createTestUser(getDb(), role);
+  for (const role of ["owner", "builder", "service_writer", "apprentice"] as const)
+    users[role] = await createTestUser(getDb(), role);
 });
 
 afterAll(() => catcher.stop());
@@ -161,8 +300,14 @@ describe("access table", () => {
     describe(`${method} ${row.path}`, () => {
       for (const who of Object.keys(row.expect) as Who[]) {
         it(`${who} → ${row.expect[who]}`, async () => {
-          const init: RequestInit = { method, body: method === "POST" ? new URLSearchParams(row.body ?? {}) : undefined };
-          const request = who === "signedOut" ? signedOutRequest(row.path, init) : await requestAs(users[who], row.path, init);
+          const init: RequestInit = {
+            method,
+            body: method === "POST" ? new URLSearchParams(row.body ?? {}) : undefined,
+          };
+          const request =
+            who === "signedOut"
+              ? signedOutRequest(row.path, init)
+              : await requestAs(users[who], row.path, init);
           expect(await outcome(request)).toBe(row.expect[who]);
         });
       }
@@ -172,8 +317,15 @@ describe("access table", () => {
   it("refuses every POST sent from another site, whoever is signed in", async () => {
     for (const row of ROWS.filter((r) => r.method === "POST")) {
       for (const who of ["signedOut", "owner"] as const) {
-        const init: RequestInit = { method: "POST", body: new URLSearchParams(row.body ?? {}), headers: { Origin: "http://elsewhere.test" } };
-        const request = who === "signedOut" ? signedOutRequest(row.path, init) : await requestAs(users[who], row.path, init);
+        const init: RequestInit = {
+          method: "POST",
+          body: new URLSearchParams(row.body ?? {}),
+          headers: { Origin: "http://elsewhere.test" },
+        };
+        const request =
+          who === "signedOut"
+            ? signedOutRequest(row.path, init)
+            : await requestAs(users[who], row.path, init);
         expect(await outcome(request), `${who} POST ${row.path}`).toBe(403);
       }
     }
@@ -181,7 +333,9 @@ describe("access table", () => {
 
   it("lists every route of app/routes.ts", () => {
     const covered = new Set(
-      ROWS.map((r) => matchRoutes(routeObjects, new URL(r.path, "http://x").pathname)?.at(-1)?.route.id),
+      ROWS.map(
+        (r) => matchRoutes(routeObjects, new URL(r.path, "http://x").pathname)?.at(-1)?.route.id,
+      ),
     );
     const missing = configFiles(routeConfig as ConfigEntry[]).filter((f) => !covered.has(f));
     expect(missing, "routes without a row in the access table").toEqual([]);

@@ -5,9 +5,9 @@ import { randomBytes } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
 import { computeSpec } from "../../calc";
 import { getDb } from "~/lib/db.server";
-import { ensureBuiltInCategories } from "~/lib/catalog.server";
-import { createRule } from "~/lib/fit-rules.server";
-import { createPackage } from "~/lib/packages.server";
+import { ensureBuiltInCategories } from "~/lib/catalog/parts.server";
+import { createRule } from "~/lib/fit-rules/rules.server";
+import { createPackage } from "~/lib/packages/store.server";
 import { action as benchAction } from "~/routes/packages.$id.bench";
 import { action as calcAction, loader as calcLoader } from "~/routes/api.calc";
 import { loader as packageLoader } from "~/routes/api.packages.$id";
@@ -23,11 +23,28 @@ let bikeId = 0;
 
 beforeAll(async () => {
   await ensureBuiltInCategories(db);
-  for (const role of ["owner", "builder", "service_writer", "apprentice"] as const) users[role] = await createTestUser(db, role);
-  const add = async (key: string, category: string, attributes: Record<string, number>, tags: string[] = [], archived = false) => {
+  for (const role of ["owner", "builder", "service_writer", "apprentice"] as const)
+    users[role] = await createTestUser(db, role);
+  const add = async (
+    key: string,
+    category: string,
+    attributes: Record<string, number>,
+    tags: string[] = [],
+    archived = false,
+  ) => {
     const row = await db
       .insertInto("parts")
-      .values({ part_number: `API-${tag}-${key}`, category, maker: "Test Works", name: `Api ${key} ${tag}`, price_cents: 12345, tags, stock: false, attributes: JSON.stringify(attributes), archived_at: archived ? new Date() : null })
+      .values({
+        part_number: `API-${tag}-${key}`,
+        category,
+        maker: "Test Works",
+        name: `Api ${key} ${tag}`,
+        price_cents: 12345,
+        tags,
+        stock: false,
+        attributes: JSON.stringify(attributes),
+        archived_at: archived ? new Date() : null,
+      })
       .returning("id")
       .executeTakeFirstOrThrow();
     part[key] = row.id;
@@ -35,33 +52,63 @@ beforeAll(async () => {
   await add("cyl", "cylinders", { boreMm: 101.6 }, [`api-bore-${tag}`]);
   await add("cam", "cams", { intakeClosesAbdcDeg: 30 }, [`api-cam-${tag}`]);
   await add("old", "cams", { intakeClosesAbdcDeg: 40 }, [`api-cam-${tag}`], true);
-  const c = await db.insertInto("customers").values({ name: `Api ${tag}`, notes: "" }).returning("id").executeTakeFirstOrThrow();
-  const bike = await db.insertInto("bikes").values({ customer_id: c.id, year: 2022, model: `Api twin ${tag}`, notes: "" }).returning("id").executeTakeFirstOrThrow();
+  const c = await db
+    .insertInto("customers")
+    .values({ name: `Api ${tag}`, notes: "" })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  const bike = await db
+    .insertInto("bikes")
+    .values({ customer_id: c.id, year: 2022, model: `Api twin ${tag}`, notes: "" })
+    .returning("id")
+    .executeTakeFirstOrThrow();
   bikeId = bike.id;
-  packageId = await createPackage(db, { name: `Api package ${tag}`, bikeId: bike.id, isTemplate: false, builderId: users.builder.id }, users.builder.id);
-  const request = await requestAs(users.builder, `/packages/${packageId}/bench`, { method: "POST", body: new URLSearchParams({ intent: "set-part", slot: "cylinder", partId: String(part.cyl), expectedRevision: "1" }) });
-  const saved = (await benchAction({ request, params: { id: String(packageId) }, context: {} } as never)) as { data: { ok: boolean } };
+  packageId = await createPackage(
+    db,
+    { name: `Api package ${tag}`, bikeId: bike.id, isTemplate: false, builderId: users.builder.id },
+    users.builder.id,
+  );
+  const request = await requestAs(users.builder, `/packages/${packageId}/bench`, {
+    method: "POST",
+    body: new URLSearchParams({
+      intent: "set-part",
+      slot: "cylinder",
+      partId: String(part.cyl),
+      expectedRevision: "1",
+    }),
+  });
+  const saved = (await benchAction({
+    request,
+    params: { id: String(packageId) },
+    context: {},
+  } as never)) as { data: { ok: boolean } };
   expect(saved.data.ok).toBe(true);
 });
 
 /** Runs a JSON route and reads its Response, thrown or returned. */
-async function json(run: () => Promise<unknown> | unknown): Promise<{ status: number; body: any; headers: Headers }> {
+async function json(
+  run: () => Promise<unknown> | unknown,
+): Promise<{ status: number; body: any; headers: Headers }> {
   let out: unknown;
   try {
     out = await run();
   } catch (thrown) {
     out = thrown;
   }
-  if (!(out instanceof Response)) throw new Error(`expected a Response, got ${JSON.stringify(out)}`);
+  if (!(out instanceof Response))
+    throw new Error(`expected a Response, got ${JSON.stringify(out)}`);
   expect(out.headers.get("Content-Type")).toMatch(/application\/json/);
   return { status: out.status, body: await out.json(), headers: out.headers };
 }
 
-const args = (request: Request, params: Record<string, string> = {}) => ({ request, params, context: {} }) as never;
+const args = (request: Request, params: Record<string, string> = {}) =>
+  ({ request, params, context: {} }) as never;
 
 describe("GET /api/parts", () => {
   const get = async (who: keyof typeof users | null, query: string) => {
-    const request = who ? await requestAs(users[who], `/api/parts?${query}`) : signedOutRequest(`/api/parts?${query}`);
+    const request = who
+      ? await requestAs(users[who], `/api/parts?${query}`)
+      : signedOutRequest(`/api/parts?${query}`);
     return json(() => partsLoader(args(request)));
   };
 
@@ -70,7 +117,17 @@ describe("GET /api/parts", () => {
     expect(out.status).toBe(200);
     expect(out.headers.get("Cache-Control")).toBe("private, no-store");
     expect(out.body.parts).toEqual([
-      { id: part.cam, partNumber: `API-${tag}-cam`, category: "cams", maker: "Test Works", name: `Api cam ${tag}`, tags: [`api-cam-${tag}`], stock: false, attributes: { intakeClosesAbdcDeg: 30 }, priceCents: 12345 },
+      {
+        id: part.cam,
+        partNumber: `API-${tag}-cam`,
+        category: "cams",
+        maker: "Test Works",
+        name: `Api cam ${tag}`,
+        tags: [`api-cam-${tag}`],
+        stock: false,
+        attributes: { intakeClosesAbdcDeg: 30 },
+        priceCents: 12345,
+      },
     ]);
   });
 
@@ -97,15 +154,34 @@ describe("GET /api/parts", () => {
 
 describe("GET /api/packages/:id", () => {
   const get = async (who: keyof typeof users | null, id: string | number) => {
-    const request = who ? await requestAs(users[who], `/api/packages/${id}`) : signedOutRequest(`/api/packages/${id}`);
+    const request = who
+      ? await requestAs(users[who], `/api/packages/${id}`)
+      : signedOutRequest(`/api/packages/${id}`);
     return json(() => packageLoader(args(request, { id: String(id) })));
   };
 
   it("answers the package with its current revision's spec, parts, figures and findings", async () => {
     const out = await get("service_writer", packageId);
     expect(out.status).toBe(200);
-    expect(Object.keys(out.body).sort()).toEqual(["cautions", "findings", "inputErrors", "missing", "package", "parts", "results", "revision", "spec"]);
-    expect(out.body.package).toMatchObject({ id: packageId, name: `Api package ${tag}`, status: "draft", isTemplate: false, builderId: users.builder.id, revision: 2 });
+    expect(Object.keys(out.body).sort()).toEqual([
+      "cautions",
+      "findings",
+      "inputErrors",
+      "missing",
+      "package",
+      "parts",
+      "results",
+      "revision",
+      "spec",
+    ]);
+    expect(out.body.package).toMatchObject({
+      id: packageId,
+      name: `Api package ${tag}`,
+      status: "draft",
+      isTemplate: false,
+      builderId: users.builder.id,
+      revision: 2,
+    });
     expect(out.body.revision).toMatchObject({ number: 2, savedBy: users.builder.name });
     expect(out.body.spec.slots.cylinder).toEqual({ partId: part.cyl, measured: {} });
     expect(out.body.parts).toEqual([expect.objectContaining({ id: part.cyl, priceCents: 12345 })]);
@@ -115,9 +191,31 @@ describe("GET /api/packages/:id", () => {
   });
 
   it("answers each finding with its rule's name and message and the values its condition used", async () => {
-    const rule = await createRule(db, { name: `Api big bore ${tag}`, kind: "caution", condition: `bore_mm > 100 and has("api-bore-${tag}")`, message: "Check the case spigots.", upgrade_category: null, suggested_part_id: null, active: true }, null);
+    const rule = await createRule(
+      db,
+      {
+        name: `Api big bore ${tag}`,
+        kind: "caution",
+        condition: `bore_mm > 100 and has("api-bore-${tag}")`,
+        message: "Check the case spigots.",
+        upgrade_category: null,
+        suggested_part_id: null,
+        active: true,
+      },
+      null,
+    );
     if (!rule.ok) throw new Error("rule fixture did not save");
-    const id = await createPackage(db, { name: `Api findings ${tag}`, bikeId, isTemplate: false, builderId: users.builder.id, spec: { slots: { cylinder: { partId: part.cyl, measured: {} } } } }, users.builder.id);
+    const id = await createPackage(
+      db,
+      {
+        name: `Api findings ${tag}`,
+        bikeId,
+        isTemplate: false,
+        builderId: users.builder.id,
+        spec: { slots: { cylinder: { partId: part.cyl, measured: {} } } },
+      },
+      users.builder.id,
+    );
     const out = await get("owner", id);
     expect(out.status).toBe(200);
     expect(out.body.findings.find((f: any) => f.ruleId === rule.rule.id)).toEqual({
@@ -146,10 +244,25 @@ describe("GET /api/packages/:id", () => {
 });
 
 describe("POST /api/calc", () => {
-  const SPEC = { boreMm: 101.6, strokeMm: 114.3, chamberCc: 89, gasketBoreMm: 102.1, gasketThicknessMm: 1.02, deckClearanceMm: 0.25, pistonDomeCc: -4.8, revLimitRpm: 6000 };
-  const postCalc = async (who: keyof typeof users | null, body: string, headers: Record<string, string> = { "Content-Type": "application/json" }) => {
+  const SPEC = {
+    boreMm: 101.6,
+    strokeMm: 114.3,
+    chamberCc: 89,
+    gasketBoreMm: 102.1,
+    gasketThicknessMm: 1.02,
+    deckClearanceMm: 0.25,
+    pistonDomeCc: -4.8,
+    revLimitRpm: 6000,
+  };
+  const postCalc = async (
+    who: keyof typeof users | null,
+    body: string,
+    headers: Record<string, string> = { "Content-Type": "application/json" },
+  ) => {
     const init = { method: "POST", body, headers };
-    const request = who ? await requestAs(users[who], "/api/calc", init) : signedOutRequest("/api/calc", init);
+    const request = who
+      ? await requestAs(users[who], "/api/calc", init)
+      : signedOutRequest("/api/calc", init);
     return json(() => calcAction(args(request)));
   };
 
@@ -186,9 +299,14 @@ describe("POST /api/calc", () => {
 
   it("answers 401 signed out, 403 from another site, 405 to a GET", async () => {
     expect((await postCalc(null, JSON.stringify(SPEC))).status).toBe(401);
-    const foreign = await postCalc("builder", JSON.stringify(SPEC), { "Content-Type": "application/json", Origin: "http://elsewhere.test" });
+    const foreign = await postCalc("builder", JSON.stringify(SPEC), {
+      "Content-Type": "application/json",
+      Origin: "http://elsewhere.test",
+    });
     expect(foreign.status).toBe(403);
-    const get = await json(async () => calcLoader(args(await requestAs(users.builder, "/api/calc"))));
+    const get = await json(async () =>
+      calcLoader(args(await requestAs(users.builder, "/api/calc"))),
+    );
     expect(get.status).toBe(405);
   });
 });

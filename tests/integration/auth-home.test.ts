@@ -14,9 +14,17 @@ describe("home per role", () => {
   it("the owner sees staff, rules, parts and customers, and every section to open", async () => {
     const home = await homeAs("owner");
     expect(home.stats.map((s) => s.label)).toEqual(
-      expect.arrayContaining(["Active staff", "Active fit rules", "Parts on the shelf", "Customers on file", "My open packages"]),
+      expect.arrayContaining([
+        "Active staff",
+        "Active fit rules",
+        "Parts on the shelf",
+        "Customers on file",
+        "My open packages",
+      ]),
     );
-    expect(home.links.map((l) => l.to)).toEqual(expect.arrayContaining(["/staff", "/packages", "/parts", "/rules"]));
+    expect(home.links.map((l) => l.to)).toEqual(
+      expect.arrayContaining(["/staff", "/packages", "/parts", "/rules"]),
+    );
   });
 
   it("the builder counts their own open packages; no staff", async () => {

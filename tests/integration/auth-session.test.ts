@@ -1,10 +1,13 @@
 import { describe, expect, it } from "vitest";
-import { getUser, requireRole, requireUser, safeRedirect } from "~/lib/auth.server";
+import { getUser, requireRole, requireUser, safeRedirect } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
-import { deleteExpiredSessions, destroySession, destroyUserSessions } from "~/lib/session.server";
+import {
+  deleteExpiredSessions,
+  destroySession,
+  destroyUserSessions,
+} from "~/lib/auth/session.server";
 import { cookieFor, createTestUser, requestAs, signedOutRequest } from "../support/auth";
 
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
 async function thrown(p: Promise<unknown>): Promise<any> {
   try {
     await p;
@@ -40,14 +43,21 @@ describe("sessions", () => {
     expect((await getUser(req()))?.role).toBe("service_writer");
     await db.updateTable("users").set({ role: "apprentice" }).where("id", "=", user.id).execute();
     expect((await getUser(req()))?.role).toBe("apprentice");
-    await db.updateTable("users").set({ disabled_at: new Date() }).where("id", "=", user.id).execute();
+    await db
+      .updateTable("users")
+      .set({ disabled_at: new Date() })
+      .where("id", "=", user.id)
+      .execute();
     expect(await getUser(req())).toBeNull();
   });
 
   it("signing out deletes the row, so the old cookie no longer works", async () => {
     const user = await createTestUser(getDb(), "apprentice");
     const cookie = await cookieFor(user);
-    const setCookie = await destroySession(getDb(), signedOutRequest("/", { headers: { Cookie: cookie } }));
+    const setCookie = await destroySession(
+      getDb(),
+      signedOutRequest("/", { headers: { Cookie: cookie } }),
+    );
     expect(setCookie).toMatch(/Max-Age=0|Expires=Thu, 01 Jan 1970/);
     expect(await getUser(signedOutRequest("/", { headers: { Cookie: cookie } }))).toBeNull();
   });
@@ -56,10 +66,18 @@ describe("sessions", () => {
     const db = getDb();
     const user = await createTestUser(db, "builder");
     const cookie = await cookieFor(user);
-    await db.updateTable("sessions").set({ expires_at: new Date(Date.now() - 1000) }).where("user_id", "=", user.id).execute();
+    await db
+      .updateTable("sessions")
+      .set({ expires_at: new Date(Date.now() - 1000) })
+      .where("user_id", "=", user.id)
+      .execute();
     expect(await getUser(signedOutRequest("/", { headers: { Cookie: cookie } }))).toBeNull();
     expect(await deleteExpiredSessions(db)).toBeGreaterThanOrEqual(1);
-    const left = await db.selectFrom("sessions").where("user_id", "=", user.id).selectAll().execute();
+    const left = await db
+      .selectFrom("sessions")
+      .where("user_id", "=", user.id)
+      .selectAll()
+      .execute();
     expect(left).toHaveLength(0);
   });
 
@@ -80,7 +98,9 @@ describe("requireUser / requireRole", () => {
 
   it("answers 403 for a role not listed; owner is not implied", async () => {
     const owner = await createTestUser(getDb(), "owner");
-    const res = (await thrown(requireRole(await requestAs(owner, "/x"), "builder"))) as { init: { status: number } };
+    const res = (await thrown(requireRole(await requestAs(owner, "/x"), "builder"))) as {
+      init: { status: number };
+    };
     expect(res.init.status).toBe(403);
     const ok = await requireRole(await requestAs(owner, "/x"), "owner", "builder");
     expect(ok.id).toBe(owner.id);
@@ -88,12 +108,21 @@ describe("requireUser / requireRole", () => {
 
   it("refuses a post from another origin even with a valid session", async () => {
     const owner = await createTestUser(getDb(), "owner");
-    const req = await requestAs(owner, "/staff", { method: "POST", headers: { Origin: "http://evil.test" }, body: "a=1" });
+    const req = await requestAs(owner, "/staff", {
+      method: "POST",
+      headers: { Origin: "http://evil.test" },
+      body: "a=1",
+    });
     const res = (await thrown(requireUser(req))) as { init: { status: number }; data: string };
     expect(res.init.status).toBe(403);
     expect(res.data).toMatch(/another site/);
-    const noOrigin = new Request("http://127.0.0.1:3000/staff", { method: "POST", headers: { Cookie: await cookieFor(owner) } });
-    expect(((await thrown(requireUser(noOrigin))) as { init: { status: number } }).init.status).toBe(403);
+    const noOrigin = new Request("http://127.0.0.1:3000/staff", {
+      method: "POST",
+      headers: { Cookie: await cookieFor(owner) },
+    });
+    expect(
+      ((await thrown(requireUser(noOrigin))) as { init: { status: number } }).init.status,
+    ).toBe(403);
   });
 });
 

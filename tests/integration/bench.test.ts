@@ -5,9 +5,9 @@ import { randomBytes } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
 import { computeSpec } from "../../calc";
 import { getDb } from "~/lib/db.server";
-import { ensureBuiltInCategories } from "~/lib/catalog.server";
-import { createRule } from "~/lib/fit-rules.server";
-import { createPackage } from "~/lib/packages.server";
+import { ensureBuiltInCategories } from "~/lib/catalog/parts.server";
+import { createRule } from "~/lib/fit-rules/rules.server";
+import { createPackage } from "~/lib/packages/store.server";
 import { action as benchAction, loader as benchLoader } from "~/routes/packages.$id.bench";
 import { createTestUser, requestAs, type TestUser } from "../support/auth";
 
@@ -21,10 +21,25 @@ let upgradeRuleId = 0;
 let conflictRuleId = 0;
 let bikeId = 0;
 
-async function addPart(key: string, category: string, attributes: Record<string, number>, tags: string[] = [], stock = false) {
+async function addPart(
+  key: string,
+  category: string,
+  attributes: Record<string, number>,
+  tags: string[] = [],
+  stock = false,
+) {
   const row = await db
     .insertInto("parts")
-    .values({ part_number: `T-${tag}-${key}`, category, maker: "Test Works", name: `Test ${key}`, price_cents: 10000, tags, stock, attributes: JSON.stringify(attributes) })
+    .values({
+      part_number: `T-${tag}-${key}`,
+      category,
+      maker: "Test Works",
+      name: `Test ${key}`,
+      price_cents: 10000,
+      tags,
+      stock,
+      attributes: JSON.stringify(attributes),
+    })
     .returning("id")
     .executeTakeFirstOrThrow();
   part[key] = row.id;
@@ -32,35 +47,94 @@ async function addPart(key: string, category: string, attributes: Record<string,
 
 beforeAll(async () => {
   await ensureBuiltInCategories(db);
-  [builder, writer, apprentice] = await Promise.all([createTestUser(db, "builder"), createTestUser(db, "service_writer"), createTestUser(db, "apprentice")]);
+  [builder, writer, apprentice] = await Promise.all([
+    createTestUser(db, "builder"),
+    createTestUser(db, "service_writer"),
+    createTestUser(db, "apprentice"),
+  ]);
   await addPart("cyl", "cylinders", { boreMm: 101.6 });
   await addPart("fly", "flywheels", { strokeMm: 114.3 });
   await addPart("pst", "pistons", { domeCc: -4.8, compressionHeightMm: 38, forBoreMm: 101.6 });
   await addPart("head", "heads", { chamberCc: 89 });
   await addPart("hg", "head_gaskets", { boreMm: 102.1, compressedThicknessMm: 1.02 });
-  await addPart("hgsmall", "head_gaskets", { boreMm: 99.1, compressedThicknessMm: 1.02 }, [`small-gasket-${tag}`]);
-  await addPart("cam", "cams", { intakeClosesAbdcDeg: 32, intakeLiftMm: 14.8, exhaustLiftMm: 14.8, timingAtLiftMm: 1.346 });
+  await addPart("hgsmall", "head_gaskets", { boreMm: 99.1, compressedThicknessMm: 1.02 }, [
+    `small-gasket-${tag}`,
+  ]);
+  await addPart("cam", "cams", {
+    intakeClosesAbdcDeg: 32,
+    intakeLiftMm: 14.8,
+    exhaustLiftMm: 14.8,
+    timingAtLiftMm: 1.346,
+  });
   await addPart("rod", "rods", { lengthMm: 189 });
   await addPart("axstock", "axle_adjusters", {}, [`stock-axle-${tag}`], true);
   await addPart("axlock", "axle_adjusters", { ratedHp: 220 });
-  const up = await createRule(db, { name: `Power ${tag}`, kind: "upgrade", condition: `power_hp > 145 and has("stock-axle-${tag}")`, message: "Upgrade the adjusters.", upgrade_category: "axle_adjusters", suggested_part_id: part.axlock!, active: true }, null);
-  const co = await createRule(db, { name: `Gasket ${tag}`, kind: "conflict", condition: `has("small-gasket-${tag}") and gasket.bore_mm < cylinder.bore_mm`, message: "Gasket bore under the bore.", upgrade_category: null, suggested_part_id: null, active: true }, null);
+  const up = await createRule(
+    db,
+    {
+      name: `Power ${tag}`,
+      kind: "upgrade",
+      condition: `power_hp > 145 and has("stock-axle-${tag}")`,
+      message: "Upgrade the adjusters.",
+      upgrade_category: "axle_adjusters",
+      suggested_part_id: part.axlock!,
+      active: true,
+    },
+    null,
+  );
+  const co = await createRule(
+    db,
+    {
+      name: `Gasket ${tag}`,
+      kind: "conflict",
+      condition: `has("small-gasket-${tag}") and gasket.bore_mm < cylinder.bore_mm`,
+      message: "Gasket bore under the bore.",
+      upgrade_category: null,
+      suggested_part_id: null,
+      active: true,
+    },
+    null,
+  );
   if (!up.ok || !co.ok) throw new Error("rule fixtures did not save");
   upgradeRuleId = up.rule.id;
   conflictRuleId = co.rule.id;
-  const c = await db.insertInto("customers").values({ name: `Bench ${tag}`, notes: "" }).returning("id").executeTakeFirstOrThrow();
-  bikeId = (await db.insertInto("bikes").values({ customer_id: c.id, year: 2020, model: "Test twin", notes: "" }).returning("id").executeTakeFirstOrThrow()).id;
+  const c = await db
+    .insertInto("customers")
+    .values({ name: `Bench ${tag}`, notes: "" })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  bikeId = (
+    await db
+      .insertInto("bikes")
+      .values({ customer_id: c.id, year: 2020, model: "Test twin", notes: "" })
+      .returning("id")
+      .executeTakeFirstOrThrow()
+  ).id;
 });
 
 async function newPackage() {
-  return createPackage(db, { name: `Bench test ${tag}`, bikeId, isTemplate: false, builderId: builder.id }, builder.id);
+  return createPackage(
+    db,
+    { name: `Bench test ${tag}`, bikeId, isTemplate: false, builderId: builder.id },
+    builder.id,
+  );
 }
 
 async function act(user: TestUser, id: number, fields: Record<string, string>) {
-  const request = await requestAs(user, `/packages/${id}/bench`, { method: "POST", body: new URLSearchParams(fields) });
-  const out = (await benchAction({ request, params: { id: String(id) }, context: {} } as never)) as { data: any; init?: { status?: number } };
+  const request = await requestAs(user, `/packages/${id}/bench`, {
+    method: "POST",
+    body: new URLSearchParams(fields),
+  });
+  const out = (await benchAction({
+    request,
+    params: { id: String(id) },
+    context: {},
+  } as never)) as { data: any; init?: { status?: number } };
   // a saved state is answered as one JSON string
-  const body = typeof out.data.saved === "string" ? { ...out.data, state: JSON.parse(out.data.saved) } : out.data;
+  const body =
+    typeof out.data.saved === "string"
+      ? { ...out.data, state: JSON.parse(out.data.saved) }
+      : out.data;
   return { status: out.init?.status ?? 200, body };
 }
 
@@ -69,22 +143,56 @@ async function current(id: number) {
 }
 
 async function fill(id: number, user = builder) {
-  const steps: [string, string][] = [["cylinder", "cyl"], ["flywheel", "fly"], ["piston", "pst"], ["head", "head"], ["gasket", "hg"], ["cam", "cam"], ["rod", "rod"]];
+  const steps: [string, string][] = [
+    ["cylinder", "cyl"],
+    ["flywheel", "fly"],
+    ["piston", "pst"],
+    ["head", "head"],
+    ["gasket", "hg"],
+    ["cam", "cam"],
+    ["rod", "rod"],
+  ];
   let rev = (await current(id)).current_revision;
   for (const [slot, key] of steps) {
-    const r = await act(user, id, { intent: "set-part", slot, partId: String(part[key]), expectedRevision: String(rev) });
+    const r = await act(user, id, {
+      intent: "set-part",
+      slot,
+      partId: String(part[key]),
+      expectedRevision: String(rev),
+    });
     expect(r.status).toBe(200);
     rev = r.body.state.revision;
   }
-  for (const [field, value] of [["deckClearanceMm", "0.25"], ["revLimitRpm", "6000"]]) {
-    const r = await act(user, id, { intent: "set-number", field: field!, value: value!, unit: field === "revLimitRpm" ? "rpm" : "mm", expectedRevision: String(rev) });
+  for (const [field, value] of [
+    ["deckClearanceMm", "0.25"],
+    ["revLimitRpm", "6000"],
+  ]) {
+    const r = await act(user, id, {
+      intent: "set-number",
+      field: field!,
+      value: value!,
+      unit: field === "revLimitRpm" ? "rpm" : "mm",
+      expectedRevision: String(rev),
+    });
     expect(r.status).toBe(200);
     rev = r.body.state.revision;
   }
   return rev;
 }
 
-const SPEC = { boreMm: 101.6, strokeMm: 114.3, pistonDomeCc: -4.8, chamberCc: 89, gasketBoreMm: 102.1, gasketThicknessMm: 1.02, intakeClosesAbdcDeg: 32, rodLengthMm: 189, deckClearanceMm: 0.25, revLimitRpm: 6000, cylinders: 2 };
+const SPEC = {
+  boreMm: 101.6,
+  strokeMm: 114.3,
+  pistonDomeCc: -4.8,
+  chamberCc: 89,
+  gasketBoreMm: 102.1,
+  gasketThicknessMm: 1.02,
+  intakeClosesAbdcDeg: 32,
+  rodLengthMm: 189,
+  deckClearanceMm: 0.25,
+  revLimitRpm: 6000,
+  cylinders: 2,
+};
 
 describe("bench actions", () => {
   it("recompute with calc/ and store the same figures in the revision and on the package", async () => {
@@ -95,10 +203,18 @@ describe("bench actions", () => {
     if (!expected.ok) throw new Error("fixture spec does not compute");
     const row = await current(id);
     expect((row.results as any).results).toEqual(expected.results);
-    const stored = await db.selectFrom("package_revisions").select(["results", "rule_snapshot", "change"]).where("package_id", "=", id).where("revision", "=", rev).executeTakeFirstOrThrow();
+    const stored = await db
+      .selectFrom("package_revisions")
+      .select(["results", "rule_snapshot", "change"])
+      .where("package_id", "=", id)
+      .where("revision", "=", rev)
+      .executeTakeFirstOrThrow();
     expect((stored.results as any).results).toEqual(expected.results);
     expect((stored.rule_snapshot as any).numbers.bore_mm).toBe(101.6);
-    expect((stored.rule_snapshot as any).numbers.cr_static).toBeCloseTo(expected.results.staticCr!, 12);
+    expect((stored.rule_snapshot as any).numbers.cr_static).toBeCloseTo(
+      expected.results.staticCr!,
+      12,
+    );
     expect(stored.change).toMatch(/Rev limit: 6000/);
     expect(row.rev_limit_rpm).toBe(6000);
   });
@@ -106,13 +222,27 @@ describe("bench actions", () => {
   it("takes measured values in inches, stores mm, and reverts to nominal", async () => {
     const id = await newPackage();
     let rev = await fill(id);
-    const r = await act(builder, id, { intent: "set-measured", slot: "gasket", field: "gasketThicknessMm", value: "0.045", unit: "in", expectedRevision: String(rev) });
+    const r = await act(builder, id, {
+      intent: "set-measured",
+      slot: "gasket",
+      field: "gasketThicknessMm",
+      value: "0.045",
+      unit: "in",
+      expectedRevision: String(rev),
+    });
     expect(r.status).toBe(200);
     rev = r.body.state.revision;
     expect(r.body.state.spec.slots.gasket.measured.gasketThicknessMm).toBeCloseTo(1.143, 9);
     const expected = computeSpec({ ...SPEC, gasketThicknessMm: 0.045 * 25.4 });
-    expect(expected.ok && r.body.state.computation.results.staticCr).toBe(expected.ok ? expected.results.staticCr : null);
-    const back = await act(builder, id, { intent: "revert-measured", slot: "gasket", field: "gasketThicknessMm", expectedRevision: String(rev) });
+    expect(expected.ok && r.body.state.computation.results.staticCr).toBe(
+      expected.ok ? expected.results.staticCr : null,
+    );
+    const back = await act(builder, id, {
+      intent: "revert-measured",
+      slot: "gasket",
+      field: "gasketThicknessMm",
+      expectedRevision: String(rev),
+    });
     expect(back.body.state.spec.slots.gasket.measured).toEqual({});
   });
 
@@ -134,21 +264,52 @@ describe("bench actions", () => {
     // without a power figure the rule could not be checked; the answer that made it fire
     // brings its name and message, the next one only names it
     const key = `${upgradeRuleId}@1`;
-    expect(answers[0].findings).toContainEqual({ ruleId: upgradeRuleId, ruleVersion: 1, kind: "upgrade", error: expect.stringMatching(/power_hp/) });
-    expect(answers[1].findings).toContainEqual({ ruleId: upgradeRuleId, ruleVersion: 1, kind: "upgrade" });
-    expect(answers[1].rules[key]).toEqual({ name: `Power ${tag}`, message: "Upgrade the adjusters.", upgradeCategory: "axle_adjusters", suggestedPartId: part.axlock });
-    expect(answers[2].findings).toContainEqual({ ruleId: upgradeRuleId, ruleVersion: 1, kind: "upgrade" });
+    expect(answers[0].findings).toContainEqual({
+      ruleId: upgradeRuleId,
+      ruleVersion: 1,
+      kind: "upgrade",
+      error: expect.stringMatching(/power_hp/),
+    });
+    expect(answers[1].findings).toContainEqual({
+      ruleId: upgradeRuleId,
+      ruleVersion: 1,
+      kind: "upgrade",
+    });
+    expect(answers[1].rules[key]).toEqual({
+      name: `Power ${tag}`,
+      message: "Upgrade the adjusters.",
+      upgradeCategory: "axle_adjusters",
+      suggestedPartId: part.axlock,
+    });
+    expect(answers[2].findings).toContainEqual({
+      ruleId: upgradeRuleId,
+      ruleVersion: 1,
+      kind: "upgrade",
+    });
     expect(answers[2].rules).not.toHaveProperty(key);
     expect(answers[2].computation).not.toHaveProperty("steps");
 
     // saved by rule version on both rows; the bench reads the name and message from that version
     const row = await current(id);
-    const saved = await db.selectFrom("package_revisions").select(["findings", "results"]).where("package_id", "=", id).where("revision", "=", rev).executeTakeFirstOrThrow();
-    expect((row.findings as any[]).find((f) => f.ruleId === upgradeRuleId)).toEqual({ ruleId: upgradeRuleId, ruleVersion: 1, kind: "upgrade" });
+    const saved = await db
+      .selectFrom("package_revisions")
+      .select(["findings", "results"])
+      .where("package_id", "=", id)
+      .where("revision", "=", rev)
+      .executeTakeFirstOrThrow();
+    expect((row.findings as any[]).find((f) => f.ruleId === upgradeRuleId)).toEqual({
+      ruleId: upgradeRuleId,
+      ruleVersion: 1,
+      kind: "upgrade",
+    });
     expect(saved.findings).toEqual(row.findings);
     expect(saved.results).not.toHaveProperty("steps");
     expect((row.rule_snapshot as any).power_basis).toBe("target");
-    const view = (await benchLoader({ request: await requestAs(builder, `/packages/${id}/bench`), params: { id: String(id) }, context: {} } as never)) as any;
+    const view = (await benchLoader({
+      request: await requestAs(builder, `/packages/${id}/bench`),
+      params: { id: String(id) },
+      context: {},
+    } as never)) as any;
     expect(view.state.findings.find((f: any) => f.ruleId === upgradeRuleId)).toMatchObject({
       kind: "upgrade",
       ruleName: `Power ${tag}`,
@@ -157,14 +318,28 @@ describe("bench actions", () => {
       suggestedPartId: part.axlock,
     });
 
-    const fixed = await act(builder, id, { intent: "set-part", slot: "axle_adjusters", partId: String(part.axlock), expectedRevision: String(rev) });
+    const fixed = await act(builder, id, {
+      intent: "set-part",
+      slot: "axle_adjusters",
+      partId: String(part.axlock),
+      expectedRevision: String(rev),
+    });
     expect(fixed.body.state.findings.some((f: any) => f.ruleId === upgradeRuleId)).toBe(false);
     rev = fixed.body.state.revision;
 
-    const bad = await act(builder, id, { intent: "set-part", slot: "gasket", partId: String(part.hgsmall), expectedRevision: String(rev) });
+    const bad = await act(builder, id, {
+      intent: "set-part",
+      slot: "gasket",
+      partId: String(part.hgsmall),
+      expectedRevision: String(rev),
+    });
     expect(bad.status).toBe(200);
-    expect(bad.body.state.findings.find((f: any) => f.ruleId === conflictRuleId)).toMatchObject({ kind: "conflict" });
-    expect(bad.body.state.computation.inputErrors.map((e: any) => e.field)).toContain("gasketBoreMm");
+    expect(bad.body.state.findings.find((f: any) => f.ruleId === conflictRuleId)).toMatchObject({
+      kind: "conflict",
+    });
+    expect(bad.body.state.computation.inputErrors.map((e: any) => e.field)).toContain(
+      "gasketBoreMm",
+    );
     expect(bad.body.state.computation.results.displacementCc).not.toBeNull();
     expect(bad.body.state.computation.results.staticCr).toBeNull();
   });
@@ -173,12 +348,36 @@ describe("bench actions", () => {
     const id = await newPackage();
     const rev = await fill(id);
     const cases: [Record<string, string>, string, RegExp][] = [
-      [{ intent: "set-measured", slot: "gasket", field: "gasketBoreMm", value: "abc", unit: "mm" }, "gasket.gasketBoreMm", /number/],
-      [{ intent: "set-measured", slot: "cylinder", field: "boreMm", value: "-101", unit: "mm" }, "cylinder.boreMm", /negative/],
-      [{ intent: "set-measured", slot: "gasket", field: "gasketBoreMm", value: "99", unit: "mm" }, "gasket.gasketBoreMm", /bore/i],
-      [{ intent: "set-measured", slot: "rod", field: "rodLengthMm", value: "56", unit: "mm" }, "rod.rodLengthMm", /stroke/i],
-      [{ intent: "set-number", field: "revLimitRpm", value: "90000", unit: "rpm" }, "revLimitRpm", /range/],
-      [{ intent: "set-measured", slot: "head", field: "boreMm", value: "100", unit: "mm" }, "head.boreMm", /slot/],
+      [
+        { intent: "set-measured", slot: "gasket", field: "gasketBoreMm", value: "abc", unit: "mm" },
+        "gasket.gasketBoreMm",
+        /number/,
+      ],
+      [
+        { intent: "set-measured", slot: "cylinder", field: "boreMm", value: "-101", unit: "mm" },
+        "cylinder.boreMm",
+        /negative/,
+      ],
+      [
+        { intent: "set-measured", slot: "gasket", field: "gasketBoreMm", value: "99", unit: "mm" },
+        "gasket.gasketBoreMm",
+        /bore/i,
+      ],
+      [
+        { intent: "set-measured", slot: "rod", field: "rodLengthMm", value: "56", unit: "mm" },
+        "rod.rodLengthMm",
+        /stroke/i,
+      ],
+      [
+        { intent: "set-number", field: "revLimitRpm", value: "90000", unit: "rpm" },
+        "revLimitRpm",
+        /range/,
+      ],
+      [
+        { intent: "set-measured", slot: "head", field: "boreMm", value: "100", unit: "mm" },
+        "head.boreMm",
+        /slot/,
+      ],
     ];
     for (const [fields, key, why] of cases) {
       const r = await act(builder, id, { ...fields, expectedRevision: String(rev) });
@@ -191,41 +390,103 @@ describe("bench actions", () => {
   it("refuses a save based on a stale revision with what changed, who and when; two concurrent saves cannot both win", async () => {
     const id = await newPackage();
     const rev = await fill(id);
-    const first = await act(builder, id, { intent: "set-measured", slot: "head", field: "chamberCc", value: "88.4", unit: "cc", expectedRevision: String(rev) });
+    const first = await act(builder, id, {
+      intent: "set-measured",
+      slot: "head",
+      field: "chamberCc",
+      value: "88.4",
+      unit: "cc",
+      expectedRevision: String(rev),
+    });
     expect(first.status).toBe(200);
-    const late = await act(builder, id, { intent: "set-part", slot: "cam", partId: String(part.cam), expectedRevision: String(rev) });
+    const late = await act(builder, id, {
+      intent: "set-part",
+      slot: "cam",
+      partId: String(part.cam),
+      expectedRevision: String(rev),
+    });
     expect(late.status).toBe(409);
-    expect(late.body.stale).toMatchObject({ currentRevision: rev + 1, baseRevision: rev, savedBy: builder.name });
-    expect(late.body.stale.changes).toEqual([{ key: "head.chamberCc", label: "Head: measured chamber", before: "nominal", after: "88.4 cc" }]);
+    expect(late.body.stale).toMatchObject({
+      currentRevision: rev + 1,
+      baseRevision: rev,
+      savedBy: builder.name,
+    });
+    expect(late.body.stale.changes).toEqual([
+      {
+        key: "head.chamberCc",
+        label: "Head: measured chamber",
+        before: "nominal",
+        after: "88.4 cc",
+      },
+    ]);
     expect(late.body.current.revision).toBe(rev + 1);
 
     const base = String(rev + 1);
     const [a, b] = await Promise.all([
-      act(builder, id, { intent: "set-number", field: "powerHp", value: "120", unit: "hp", expectedRevision: base }),
-      act(builder, id, { intent: "set-number", field: "powerHp", value: "130", unit: "hp", expectedRevision: base }),
+      act(builder, id, {
+        intent: "set-number",
+        field: "powerHp",
+        value: "120",
+        unit: "hp",
+        expectedRevision: base,
+      }),
+      act(builder, id, {
+        intent: "set-number",
+        field: "powerHp",
+        value: "130",
+        unit: "hp",
+        expectedRevision: base,
+      }),
     ]);
     expect([a.status, b.status].sort()).toEqual([200, 409]);
-    const revs = await db.selectFrom("package_revisions").select("revision").where("package_id", "=", id).execute();
+    const revs = await db
+      .selectFrom("package_revisions")
+      .select("revision")
+      .where("package_id", "=", id)
+      .execute();
     expect(revs.length).toBe(rev + 2);
   });
 
   it("lets only owner and builder change the bench; the apprentice cannot open it", async () => {
     const id = await newPackage();
-    const r = await requestAs(writer, `/packages/${id}/bench`, { method: "POST", body: new URLSearchParams({ intent: "clear-slot", slot: "cam", expectedRevision: "1" }) });
-    await expect(benchAction({ request: r, params: { id: String(id) }, context: {} } as never)).rejects.toMatchObject({ init: { status: 403 } });
-    const view = await benchLoader({ request: await requestAs(writer, `/packages/${id}/bench`), params: { id: String(id) }, context: {} } as never);
+    const r = await requestAs(writer, `/packages/${id}/bench`, {
+      method: "POST",
+      body: new URLSearchParams({ intent: "clear-slot", slot: "cam", expectedRevision: "1" }),
+    });
+    await expect(
+      benchAction({ request: r, params: { id: String(id) }, context: {} } as never),
+    ).rejects.toMatchObject({ init: { status: 403 } });
+    const view = await benchLoader({
+      request: await requestAs(writer, `/packages/${id}/bench`),
+      params: { id: String(id) },
+      context: {},
+    } as never);
     expect(view.canEdit).toBe(false);
     expect(view.options.cylinder?.[0]?.priceCents).toBeTypeOf("number");
-    await expect(benchLoader({ request: await requestAs(apprentice, `/packages/${id}/bench`), params: { id: String(id) }, context: {} } as never)).rejects.toMatchObject({ init: { status: 403 } });
+    await expect(
+      benchLoader({
+        request: await requestAs(apprentice, `/packages/${id}/bench`),
+        params: { id: String(id) },
+        context: {},
+      } as never),
+    ).rejects.toMatchObject({ init: { status: 403 } });
   });
 
   it("remembers the unit system per user", async () => {
     const id = await newPackage();
     const r = await act(writer, id, { intent: "set-units", units: "metric" });
     expect(r.body).toEqual({ ok: true, units: "metric" });
-    const view = await benchLoader({ request: await requestAs(writer, `/packages/${id}/bench`), params: { id: String(id) }, context: {} } as never);
+    const view = await benchLoader({
+      request: await requestAs(writer, `/packages/${id}/bench`),
+      params: { id: String(id) },
+      context: {},
+    } as never);
     expect(view.units).toBe("metric");
-    const other = await benchLoader({ request: await requestAs(builder, `/packages/${id}/bench`), params: { id: String(id) }, context: {} } as never);
+    const other = await benchLoader({
+      request: await requestAs(builder, `/packages/${id}/bench`),
+      params: { id: String(id) },
+      context: {},
+    } as never);
     expect(other.units).toBe("inch");
   });
 });

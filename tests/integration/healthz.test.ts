@@ -4,10 +4,16 @@ import { getDb } from "~/lib/db.server";
 
 describe("GET /healthz", () => {
   it("answers ok after one query against the test database", async () => {
-    const res = (await loader({ request: new Request("http://t/healthz"), params: {}, context: {} } as never)) as Response;
+    const res = (await loader({
+      request: new Request("http://t/healthz"),
+      params: {},
+      context: {},
+    } as never)) as Response;
     expect(res.status).toBe(200);
     expect(await res.json()).toEqual({ ok: true });
-    const { rows } = await (await import("kysely")).sql<{ db: string }>`select current_database() as db`.execute(getDb());
+    const { rows } = await (
+      await import("kysely")
+    ).sql<{ db: string }>`select current_database() as db`.execute(getDb());
     expect(rows[0]?.db).toBe("torquewright_test");
   });
 
@@ -17,7 +23,11 @@ describe("GET /healthz", () => {
     const saved = g.__twDb;
     g.__twDb = createDb("postgres://postgres@127.0.0.1:1/none", 1);
     try {
-      const res = (await loader({ request: new Request("http://t/healthz"), params: {}, context: {} } as never)) as Response;
+      const res = (await loader({
+        request: new Request("http://t/healthz"),
+        params: {},
+        context: {},
+      } as never)) as Response;
       expect(res.status).toBe(503);
       const body = await res.json();
       expect(body.ok).toBe(false);

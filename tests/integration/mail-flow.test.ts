@@ -13,7 +13,8 @@ process.env.LOCAL_MAIL_API_URL = catcher.apiUrl;
 process.env.MAIL_RETRY_DELAY_SECONDS = "1";
 
 const { getDb } = await import("~/lib/db.server");
-const { startJobWorkers, stopJobs } = await import("~/lib/jobs.server");
+const { stopJobs } = await import("~/lib/mail/jobs.server");
+const { startJobWorkers } = await import("~/lib/mail/workers.server");
 const staff = await import("~/routes/staff");
 const invite = await import("~/routes/invite.$token");
 const login = await import("~/routes/login");
@@ -22,7 +23,8 @@ const resetToken = await import("~/routes/reset.$token");
 const outbox = await import("~/routes/dev.outbox");
 const outboxMessage = await import("~/routes/dev.outbox.$id");
 
-const args = (request: Request, params: Record<string, string> = {}) => ({ request, params, context: {} }) as never;
+const args = (request: Request, params: Record<string, string> = {}) =>
+  ({ request, params, context: {} }) as never;
 const unique = (p: string) => `${p}-${randomBytes(4).toString("hex")}@crew.test`;
 
 beforeAll(async () => {
@@ -35,7 +37,11 @@ afterAll(async () => {
 });
 
 async function signIn(email: string, password: string) {
-  return (await login.action(args(signedOutRequest("/login", { method: "POST", body: form(asFromPage({ email, password })) })))) as Response;
+  return (await login.action(
+    args(
+      signedOutRequest("/login", { method: "POST", body: form(asFromPage({ email, password })) }),
+    ),
+  )) as Response;
 }
 
 describe("invite by e-mail", () => {
@@ -43,7 +49,12 @@ describe("invite by e-mail", () => {
     const owner = await createTestUser(getDb(), "owner");
     const email = unique("new-builder");
     const res = await staff.action(
-      args(await requestAs(owner, "/staff", { method: "POST", body: form({ intent: "invite", email, role: "builder" }) })),
+      args(
+        await requestAs(owner, "/staff", {
+          method: "POST",
+          body: form({ intent: "invite", email, role: "builder" }),
+        }),
+      ),
     );
     expect((res as { done: string }).done).toBe(`Invite sent to ${email}.`);
 
@@ -56,12 +67,28 @@ describe("invite by e-mail", () => {
     expect(page.invite).toEqual({ email, role: "builder" });
 
     const accept = (await invite.action(
-      args(signedOutRequest(link.pathname, { method: "POST", body: form(asFromPage({ name: "Oren Vashti", password: "long-enough-pass", confirm: "long-enough-pass" })) }), { token }),
+      args(
+        signedOutRequest(link.pathname, {
+          method: "POST",
+          body: form(
+            asFromPage({
+              name: "Oren Vashti",
+              password: "long-enough-pass",
+              confirm: "long-enough-pass",
+            }),
+          ),
+        }),
+        { token },
+      ),
     )) as Response;
     expect(accept.status).toBe(302);
     expect(accept.headers.get("Set-Cookie")).toMatch(/^tw_session=/);
 
-    const user = await getDb().selectFrom("users").where("email", "=", email).selectAll().executeTakeFirstOrThrow();
+    const user = await getDb()
+      .selectFrom("users")
+      .where("email", "=", email)
+      .selectAll()
+      .executeTakeFirstOrThrow();
     expect(user).toMatchObject({ name: "Oren Vashti", role: "builder", disabled_at: null });
 
     const signedIn = await signIn(email, "long-enough-pass");
@@ -72,7 +99,19 @@ describe("invite by e-mail", () => {
     const again = await invite.loader(args(signedOutRequest(link.pathname), { token }));
     expect(again.problem).toMatch(/already been used/);
     const reuse = (await invite.action(
-      args(signedOutRequest(link.pathname, { method: "POST", body: form(asFromPage({ name: "Someone Else", password: "another-pass-9", confirm: "another-pass-9" })) }), { token }),
+      args(
+        signedOutRequest(link.pathname, {
+          method: "POST",
+          body: form(
+            asFromPage({
+              name: "Someone Else",
+              password: "another-pass-9",
+              confirm: "another-pass-9",
+            }),
+          ),
+        }),
+        { token },
+      ),
     )) as { init: { status: number }; data: { result: { error: Record<string, string[]> } } };
     expect(reuse.init.status).toBe(410);
     expect(reuse.data.result.error[""]).toEqual([expect.stringMatching(/already been used/)]);
@@ -81,21 +120,46 @@ describe("invite by e-mail", () => {
   it("refuses an expired or altered invite link with a clear message", async () => {
     const owner = await createTestUser(getDb(), "owner");
     const email = unique("late");
-    await staff.action(args(await requestAs(owner, "/staff", { method: "POST", body: form({ intent: "invite", email, role: "apprentice" }) })));
-    const token = linkIn((await mailFor(catcher.apiUrl, email)).text, "/invite/").pathname.split("/")[2]!;
+    await staff.action(
+      args(
+        await requestAs(owner, "/staff", {
+          method: "POST",
+          body: form({ intent: "invite", email, role: "apprentice" }),
+        }),
+      ),
+    );
+    const token = linkIn((await mailFor(catcher.apiUrl, email)).text, "/invite/").pathname.split(
+      "/",
+    )[2]!;
 
     const altered = `${token.slice(0, -2)}${token.endsWith("AA") ? "BB" : "AA"}`;
-    expect((await invite.loader(args(signedOutRequest("/"), { token: altered }))).problem).toMatch(/not valid/);
+    expect((await invite.loader(args(signedOutRequest("/"), { token: altered }))).problem).toMatch(
+      /not valid/,
+    );
 
-    await getDb().updateTable("auth_tokens").set({ expires_at: new Date(Date.now() - 1000) }).where("email", "=", email).execute();
-    expect((await invite.loader(args(signedOutRequest("/"), { token }))).problem).toMatch(/expired/);
+    await getDb()
+      .updateTable("auth_tokens")
+      .set({ expires_at: new Date(Date.now() - 1000) })
+      .where("email", "=", email)
+      .execute();
+    expect((await invite.loader(args(signedOutRequest("/"), { token }))).problem).toMatch(
+      /expired/,
+    );
   });
 
   it("keeps the typed values and says why when the form is incomplete", async () => {
     const owner = await createTestUser(getDb(), "owner");
     const res = (await staff.action(
-      args(await requestAs(owner, "/staff", { method: "POST", body: form({ intent: "invite", email: "not-an-address", role: "builder" }) })),
-    )) as { init: { status: number }; data: { result: { error: Record<string, string[]>; initialValue: Record<string, string> } } };
+      args(
+        await requestAs(owner, "/staff", {
+          method: "POST",
+          body: form({ intent: "invite", email: "not-an-address", role: "builder" }),
+        }),
+      ),
+    )) as {
+      init: { status: number };
+      data: { result: { error: Record<string, string[]>; initialValue: Record<string, string> } };
+    };
     expect(res.init.status).toBe(400);
     expect(res.data.result.error.email).toEqual(["Enter the person's e-mail address."]);
     expect(res.data.result.initialValue.role).toBe("builder");
@@ -108,24 +172,45 @@ describe("password reset by e-mail", () => {
     const { cookieFor } = await import("../support/auth");
     const oldCookie = await cookieFor(user);
 
-    const answer = await resetRequest.action(args(signedOutRequest("/reset", { method: "POST", body: form(asFromPage({ email: user.email.toUpperCase() })) })));
+    const answer = await resetRequest.action(
+      args(
+        signedOutRequest("/reset", {
+          method: "POST",
+          body: form(asFromPage({ email: user.email.toUpperCase() })),
+        }),
+      ),
+    );
     expect((answer as { sent: boolean }).sent).toBe(true);
     const link = linkIn((await mailFor(catcher.apiUrl, user.email)).text, "/reset/");
     const token = link.pathname.split("/")[2]!;
 
-    expect((await resetToken.loader(args(signedOutRequest(link.pathname), { token }))).email).toBe(user.email);
+    expect((await resetToken.loader(args(signedOutRequest(link.pathname), { token }))).email).toBe(
+      user.email,
+    );
     const done = (await resetToken.action(
-      args(signedOutRequest(link.pathname, { method: "POST", body: form(asFromPage({ password: "fresh-password-77", confirm: "fresh-password-77" })) }), { token }),
+      args(
+        signedOutRequest(link.pathname, {
+          method: "POST",
+          body: form(asFromPage({ password: "fresh-password-77", confirm: "fresh-password-77" })),
+        }),
+        { token },
+      ),
     )) as Response;
     expect(done.status).toBe(302);
 
     expect((await signIn(user.email, "fresh-password-77")).status).toBe(302);
     expect((await signIn(user.email, user.password)) instanceof Response).toBe(false);
-    const { getUser } = await import("~/lib/auth.server");
+    const { getUser } = await import("~/lib/auth/auth.server");
     expect(await getUser(signedOutRequest("/", { headers: { Cookie: oldCookie } }))).toBeNull();
 
     const reused = (await resetToken.action(
-      args(signedOutRequest(link.pathname, { method: "POST", body: form(asFromPage({ password: "third-password-88", confirm: "third-password-88" })) }), { token }),
+      args(
+        signedOutRequest(link.pathname, {
+          method: "POST",
+          body: form(asFromPage({ password: "third-password-88", confirm: "third-password-88" })),
+        }),
+        { token },
+      ),
     )) as { init: { status: number }; data: { result: { error: Record<string, string[]> } } };
     expect(reused.init.status).toBe(410);
     expect(reused.data.result.error[""]![0]).toMatch(/already been used/);
@@ -133,7 +218,9 @@ describe("password reset by e-mail", () => {
 
   it("answers the same for an unknown address, and sends nothing", async () => {
     const email = unique("nobody");
-    const answer = await resetRequest.action(args(signedOutRequest("/reset", { method: "POST", body: form(asFromPage({ email })) })));
+    const answer = await resetRequest.action(
+      args(signedOutRequest("/reset", { method: "POST", body: form(asFromPage({ email })) })),
+    );
     expect(answer).toMatchObject({ sent: true });
     await new Promise((r) => setTimeout(r, 1500));
     expect((await listCaught(catcher.apiUrl)).some((m) => m.to.includes(email))).toBe(false);
@@ -147,10 +234,21 @@ describe("the mail queue", () => {
     const { smtpPort, apiPort } = catcher;
     await catcher.stop();
 
-    await staff.action(args(await requestAs(owner, "/staff", { method: "POST", body: form({ intent: "invite", email, role: "apprentice" }) })));
+    await staff.action(
+      args(
+        await requestAs(owner, "/staff", {
+          method: "POST",
+          body: form({ intent: "invite", email, role: "apprentice" }),
+        }),
+      ),
+    );
     const failed = await waitFor(
       async () => {
-        const row = await getDb().selectFrom("mail_messages").where("to_address", "=", email).selectAll().executeTakeFirst();
+        const row = await getDb()
+          .selectFrom("mail_messages")
+          .where("to_address", "=", email)
+          .selectAll()
+          .executeTakeFirst();
         return row && row.attempts >= 1 ? row : null;
       },
       15_000,
@@ -163,12 +261,16 @@ describe("the mail queue", () => {
     await mailFor(catcher.apiUrl, email, 20_000);
     await new Promise((r) => setTimeout(r, 2500));
     expect((await listCaught(catcher.apiUrl)).filter((m) => m.to.includes(email))).toHaveLength(1);
-    const sent = await getDb().selectFrom("mail_messages").where("to_address", "=", email).selectAll().executeTakeFirstOrThrow();
+    const sent = await getDb()
+      .selectFrom("mail_messages")
+      .where("to_address", "=", email)
+      .selectAll()
+      .executeTakeFirstOrThrow();
     expect(sent.status).toBe("sent");
   });
 
   it("queues one message per idempotency key", async () => {
-    const { queueMail, deliverMessage } = await import("~/lib/mail.server");
+    const { queueMail, deliverMessage } = await import("~/lib/mail/mail.server");
     const key = `test:${randomBytes(4).toString("hex")}`;
     const to = unique("once");
     const first = await queueMail(getDb(), { key, to, subject: "Once", text: "only once" });
@@ -184,18 +286,24 @@ describe("the mail queue", () => {
 
 describe("scheduled clean-up", () => {
   it("is scheduled every 15 minutes and removes expired sessions", async () => {
-    const { getBoss, QUEUES } = await import("~/lib/jobs.server");
+    const { getBoss, QUEUES } = await import("~/lib/mail/jobs.server");
     const schedules = await (await getBoss()).getSchedules();
     expect(schedules.find((s) => s.name === QUEUES.cleanup)?.cron).toBe("*/15 * * * *");
 
-    const { runCleanup } = await import("~/lib/cleanup.server");
+    const { runCleanup } = await import("~/lib/auth/cleanup.server");
     const { cookieFor } = await import("../support/auth");
     const user = await createTestUser(getDb(), "apprentice");
     await cookieFor(user);
-    await getDb().updateTable("sessions").set({ expires_at: new Date(Date.now() - 60_000) }).where("user_id", "=", user.id).execute();
+    await getDb()
+      .updateTable("sessions")
+      .set({ expires_at: new Date(Date.now() - 60_000) })
+      .where("user_id", "=", user.id)
+      .execute();
     const result = await runCleanup(getDb());
     expect(result.sessions).toBeGreaterThanOrEqual(1);
-    expect(await getDb().selectFrom("sessions").where("user_id", "=", user.id).selectAll().execute()).toHaveLength(0);
+    expect(
+      await getDb().selectFrom("sessions").where("user_id", "=", user.id).selectAll().execute(),
+    ).toHaveLength(0);
   });
 });
 
@@ -203,12 +311,21 @@ describe("/dev/outbox", () => {
   it("lists caught mail for the owner and shows one message with its links", async () => {
     const owner = await createTestUser(getDb(), "owner");
     const email = unique("outbox");
-    await staff.action(args(await requestAs(owner, "/staff", { method: "POST", body: form({ intent: "invite", email, role: "builder" }) })));
+    await staff.action(
+      args(
+        await requestAs(owner, "/staff", {
+          method: "POST",
+          body: form({ intent: "invite", email, role: "builder" }),
+        }),
+      ),
+    );
     await mailFor(catcher.apiUrl, email);
     const list = await outbox.loader(args(await requestAs(owner, "/dev/outbox")));
     const row = list.messages.find((m) => m.to.includes(email))!;
     expect(row.subject).toMatch(/invited/);
-    const one = await outboxMessage.loader(args(await requestAs(owner, `/dev/outbox/${row.id}`), { id: row.id }));
+    const one = await outboxMessage.loader(
+      args(await requestAs(owner, `/dev/outbox/${row.id}`), { id: row.id }),
+    );
     expect(one.message.text).toMatch(/\/invite\//);
   });
 });

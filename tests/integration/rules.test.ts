@@ -1,14 +1,19 @@
 import { randomBytes } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
-import { ensureBuiltInCategories } from "~/lib/catalog.server";
+import { ensureBuiltInCategories } from "~/lib/catalog/parts.server";
 import { getDb } from "~/lib/db.server";
-import { getRuleHistory, listPackageSnapshots, loadActiveRules, previewRule } from "~/lib/fit-rules.server";
-import { buildRuleSnapshot } from "~/lib/rule-snapshot";
+import {
+  getRuleHistory,
+  listPackageSnapshots,
+  loadActiveRules,
+  previewRule,
+} from "~/lib/fit-rules/rules.server";
+import { buildRuleSnapshot } from "~/lib/fit-rules/snapshot";
 import { action as newAction, loader as newLoader } from "~/routes/rules.new";
 import { action as editAction, loader as ruleLoader } from "~/routes/rules.$id";
 import { loader as listLoader } from "~/routes/rules";
 import { args, post, run } from "../support/route";
-import { createTestUser, form, requestAs, type TestUser } from "../support/auth";
+import { createTestUser, requestAs, type TestUser } from "../support/auth";
 
 const db = getDb();
 const tag = () => randomBytes(4).toString("hex");
@@ -16,12 +21,21 @@ const users = {} as Record<"owner" | "builder" | "service_writer" | "apprentice"
 
 beforeAll(async () => {
   await ensureBuiltInCategories(db);
-  for (const r of ["owner", "builder", "service_writer", "apprentice"] as const) users[r] = await createTestUser(db, r);
+  for (const r of ["owner", "builder", "service_writer", "apprentice"] as const)
+    users[r] = await createTestUser(db, r);
 });
 
-
 function ruleBody(over: Record<string, string> = {}) {
-  return { intent: "save", name: `Axle check ${tag()}`, kind: "upgrade", condition: 'power_hp > 145 and has("stock-axle-adjusters")', message: "Fit locking adjusters.", upgrade_category: "axle_adjusters", active: "on", ...over };
+  return {
+    intent: "save",
+    name: `Axle check ${tag()}`,
+    kind: "upgrade",
+    condition: 'power_hp > 145 and has("stock-axle-adjusters")',
+    message: "Fit locking adjusters.",
+    upgrade_category: "axle_adjusters",
+    active: "on",
+    ...over,
+  };
 }
 
 describe("writing fit rules", () => {
@@ -32,75 +46,173 @@ describe("writing fit rules", () => {
     const id = Number(r.location!.match(/\/rules\/(\d+)/)![1]);
     const history = await getRuleHistory(db, id);
     expect(history).toHaveLength(1);
-    expect(history[0]).toMatchObject({ version: 1, condition: body.condition, name: body.name, changed_by: users.owner.id, change_note: "Created" });
+    expect(history[0]).toMatchObject({
+      version: 1,
+      condition: body.condition,
+      name: body.name,
+      changed_by: users.owner.id,
+      change_note: "Created",
+    });
   });
 
   it("refuses a forbidden condition beside the field and keeps the other values", async () => {
-    const r = await run(async () => newAction(args(await post(users.owner, "/rules/new", ruleBody({ condition: 'import("fs") == 1' })))));
+    const r = await run(async () =>
+      newAction(
+        args(await post(users.owner, "/rules/new", ruleBody({ condition: 'import("fs") == 1' }))),
+      ),
+    );
     expect(r.status).toBe(400);
-    expect(r.value.result.error.condition[0]).toMatch(/"import" is not a function fit rules can use.*character 1/);
+    expect(r.value.result.error.condition[0]).toMatch(
+      /"import" is not a function fit rules can use.*character 1/,
+    );
     expect(r.value.result.initialValue.message).toBe("Fit locking adjusters.");
   });
 
   it("an upgrade rule needs its category; the schema says so beside the field", async () => {
-    const r = await run(async () => newAction(args(await post(users.owner, "/rules/new", ruleBody({ upgrade_category: "" })))));
+    const r = await run(async () =>
+      newAction(args(await post(users.owner, "/rules/new", ruleBody({ upgrade_category: "" })))),
+    );
     expect(r.status).toBe(400);
     expect(r.value.result.error.upgrade_category[0]).toMatch(/names the category/);
   });
 
   it("preview returns the lists and saves nothing", async () => {
     const name = `Preview only ${tag()}`;
-    const r = await run(async () => newAction(args(await post(users.owner, "/rules/new", ruleBody({ intent: "preview", name })))));
+    const r = await run(async () =>
+      newAction(args(await post(users.owner, "/rules/new", ruleBody({ intent: "preview", name })))),
+    );
     expect(r.status).toBe(200);
     expect(r.value.preview.ok).toBe(true);
-    expect(await db.selectFrom("fit_rules").where("name", "=", name).selectAll().execute()).toEqual([]);
+    expect(await db.selectFrom("fit_rules").where("name", "=", name).selectAll().execute()).toEqual(
+      [],
+    );
   });
 
   it("the pair form writes has(A) and has(B) as a conflict", async () => {
-    const r = await run(async () => newAction(args(await post(users.owner, "/rules/new", { intent: "pair-save", name: `Pair ${tag()}`, a: "gear-drive-cam", b: "TW-CAM-PLT-STD", message: "Not together." }))));
+    const r = await run(async () =>
+      newAction(
+        args(
+          await post(users.owner, "/rules/new", {
+            intent: "pair-save",
+            name: `Pair ${tag()}`,
+            a: "gear-drive-cam",
+            b: "TW-CAM-PLT-STD",
+            message: "Not together.",
+          }),
+        ),
+      ),
+    );
     expect(r.status).toBe(302);
     const id = Number(r.location!.match(/\/rules\/(\d+)/)![1]);
-    const rule = await db.selectFrom("fit_rules").selectAll().where("id", "=", id).executeTakeFirstOrThrow();
-    expect(rule).toMatchObject({ kind: "conflict", condition: 'has("gear-drive-cam") and has("tw-cam-plt-std")' });
+    const rule = await db
+      .selectFrom("fit_rules")
+      .selectAll()
+      .where("id", "=", id)
+      .executeTakeFirstOrThrow();
+    expect(rule).toMatchObject({
+      kind: "conflict",
+      condition: 'has("gear-drive-cam") and has("tw-cam-plt-std")',
+    });
   });
 
   it("an edit writes version 2 with its note; a stale edit is refused", async () => {
-    const made = await run(async () => newAction(args(await post(users.owner, "/rules/new", ruleBody()))));
+    const made = await run(async () =>
+      newAction(args(await post(users.owner, "/rules/new", ruleBody()))),
+    );
     const id = made.location!.match(/\/rules\/(\d+)/)![1]!;
-    const edit = await run(async () => editAction(args(await post(users.owner, `/rules/${id}`, ruleBody({ condition: 'power_hp > 150 and has("stock-axle-adjusters")', version: "1", change_note: "Raised to 150" })), { id })));
+    const edit = await run(async () =>
+      editAction(
+        args(
+          await post(
+            users.owner,
+            `/rules/${id}`,
+            ruleBody({
+              condition: 'power_hp > 150 and has("stock-axle-adjusters")',
+              version: "1",
+              change_note: "Raised to 150",
+            }),
+          ),
+          { id },
+        ),
+      ),
+    );
     expect(edit.status).toBe(302);
-    const stale = await run(async () => editAction(args(await post(users.owner, `/rules/${id}`, ruleBody({ version: "1" })), { id })));
+    const stale = await run(async () =>
+      editAction(args(await post(users.owner, `/rules/${id}`, ruleBody({ version: "1" })), { id })),
+    );
     expect(stale.status).toBe(409);
     const history = await getRuleHistory(db, Number(id));
     expect(history.map((h) => [h.version, h.change_note])).toEqual([
       [2, "Raised to 150"],
       [1, "Created"],
     ]);
-    const page = await run(async () => ruleLoader(args(await requestAs(users.apprentice, `/rules/${id}`), { id })));
+    const page = await run(async () =>
+      ruleLoader(args(await requestAs(users.apprentice, `/rules/${id}`), { id })),
+    );
     expect(page.value.history).toHaveLength(2);
     expect(page.value.canEdit).toBe(false);
     expect(page.value.options).toBeNull();
   });
 
-  it.each(["builder", "service_writer", "apprentice"] as const)("%s may read the rules but gets 403 on every change", async (role) => {
-    const list = await run(async () => listLoader(args(await requestAs(users[role], "/rules"))));
-    expect(list.status).toBe(200);
-    expect((await run(async () => newLoader(args(await requestAs(users[role], "/rules/new"))))).status).toBe(403);
-    const before = Number((await db.selectFrom("fit_rule_versions").select((eb) => eb.fn.countAll<string>().as("n")).executeTakeFirstOrThrow()).n);
-    expect((await run(async () => newAction(args(await post(users[role], "/rules/new", ruleBody()))))).status).toBe(403);
-    const some = await db.selectFrom("fit_rules").select("id").executeTakeFirstOrThrow();
-    expect((await run(async () => editAction(args(await post(users[role], `/rules/${some.id}`, ruleBody()), { id: String(some.id) })))).status).toBe(403);
-    const after = Number((await db.selectFrom("fit_rule_versions").select((eb) => eb.fn.countAll<string>().as("n")).executeTakeFirstOrThrow()).n);
-    expect(after).toBeGreaterThanOrEqual(before); // other files may add rules in parallel; none of ours landed
-    expect(await db.selectFrom("fit_rule_versions").where("changed_by", "=", users[role].id).selectAll().execute()).toEqual([]);
-  });
+  it.each(["builder", "service_writer", "apprentice"] as const)(
+    "%s may read the rules but gets 403 on every change",
+    async (role) => {
+      const list = await run(async () => listLoader(args(await requestAs(users[role], "/rules"))));
+      expect(list.status).toBe(200);
+      expect(
+        (await run(async () => newLoader(args(await requestAs(users[role], "/rules/new"))))).status,
+      ).toBe(403);
+      const before = Number(
+        (
+          await db
+            .selectFrom("fit_rule_versions")
+            .select((eb) => eb.fn.countAll<string>().as("n"))
+            .executeTakeFirstOrThrow()
+        ).n,
+      );
+      expect(
+        (await run(async () => newAction(args(await post(users[role], "/rules/new", ruleBody())))))
+          .status,
+      ).toBe(403);
+      const some = await db.selectFrom("fit_rules").select("id").executeTakeFirstOrThrow();
+      expect(
+        (
+          await run(async () =>
+            editAction(
+              args(await post(users[role], `/rules/${some.id}`, ruleBody()), {
+                id: String(some.id),
+              }),
+            ),
+          )
+        ).status,
+      ).toBe(403);
+      const after = Number(
+        (
+          await db
+            .selectFrom("fit_rule_versions")
+            .select((eb) => eb.fn.countAll<string>().as("n"))
+            .executeTakeFirstOrThrow()
+        ).n,
+      );
+      expect(after).toBeGreaterThanOrEqual(before); // other files may add rules in parallel; none of ours landed
+      expect(
+        await db
+          .selectFrom("fit_rule_versions")
+          .where("changed_by", "=", users[role].id)
+          .selectAll()
+          .execute(),
+      ).toEqual([]);
+    },
+  );
 });
 
 describe("loading and previewing", () => {
   it("loadActiveRules sees a change at once", async () => {
     const first = await loadActiveRules(db);
     const name = `Cache ${tag()}`;
-    await run(async () => newAction(args(await post(users.owner, "/rules/new", ruleBody({ name })))));
+    await run(async () =>
+      newAction(args(await post(users.owner, "/rules/new", ruleBody({ name })))),
+    );
     const second = await loadActiveRules(db);
     expect(second.length).toBeGreaterThan(first.length - 0);
     expect(second.some((r) => r.name === name)).toBe(true);
@@ -109,12 +221,46 @@ describe("loading and previewing", () => {
 
   it("previewRule takes its packages from an injected loader", async () => {
     const packages = [
-      { packageId: 1, name: "Touring 107", snapshot: buildRuleSnapshot({ numbers: { power_hp: 150 }, parts: [{ slot: "axle_adjusters", partId: null, partNumber: "TW-AX-STD", category: "axle_adjusters", tags: ["stock-axle-adjusters"], attributes: {}, stock: true }] }) },
-      { packageId: 2, name: "Mild 114", snapshot: buildRuleSnapshot({ numbers: { power_hp: 120 }, parts: [] }) },
+      {
+        packageId: 1,
+        name: "Touring 107",
+        snapshot: buildRuleSnapshot({
+          numbers: { power_hp: 150 },
+          parts: [
+            {
+              slot: "axle_adjusters",
+              partId: null,
+              partNumber: "TW-AX-STD",
+              category: "axle_adjusters",
+              tags: ["stock-axle-adjusters"],
+              attributes: {},
+              stock: true,
+            },
+          ],
+        }),
+      },
+      {
+        packageId: 2,
+        name: "Mild 114",
+        snapshot: buildRuleSnapshot({ numbers: { power_hp: 120 }, parts: [] }),
+      },
     ];
-    const r = await previewRule(db, { name: "x", kind: "upgrade", condition: 'power_hp > 145 and has("stock-axle-adjusters")', message: "m", upgrade_category: "axle_adjusters", suggested_part_id: null, active: true }, null, {
-      listPackageSnapshots: async () => packages,
-    });
+    const r = await previewRule(
+      db,
+      {
+        name: "x",
+        kind: "upgrade",
+        condition: 'power_hp > 145 and has("stock-axle-adjusters")',
+        message: "m",
+        upgrade_category: "axle_adjusters",
+        suggested_part_id: null,
+        active: true,
+      },
+      null,
+      {
+        listPackageSnapshots: async () => packages,
+      },
+    );
     expect(r.ok && r.willFlag.map((p) => p.name)).toEqual(["Touring 107"]);
     expect(r.ok && r.checked).toBe(2);
   });
@@ -122,7 +268,16 @@ describe("loading and previewing", () => {
   it("listPackageSnapshots reads the bench's stored snapshots", async () => {
     const snapshot = buildRuleSnapshot({ numbers: { power_hp: 151 }, parts: [] });
     const name = `Snapshot pkg ${tag()}`;
-    await db.insertInto("packages").values({ name, is_template: true, spec: "{}", results: "{}", rule_snapshot: JSON.stringify(snapshot) }).execute();
+    await db
+      .insertInto("packages")
+      .values({
+        name,
+        is_template: true,
+        spec: "{}",
+        results: "{}",
+        rule_snapshot: JSON.stringify(snapshot),
+      })
+      .execute();
     const rows = await listPackageSnapshots(db);
     expect(rows.find((r) => r.name === name)?.snapshot).toEqual(snapshot);
   });

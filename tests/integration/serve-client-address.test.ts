@@ -1,9 +1,12 @@
 import type { AddressInfo } from "node:net";
 import express from "express";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { CLIENT_ADDRESS_HEADER, clientAddress } from "~/lib/throttle.server";
+import { CLIENT_ADDRESS_HEADER, clientAddress } from "~/lib/auth/throttle.server";
 // @ts-expect-error plain ESM module without type declarations
-import { CLIENT_ADDRESS_HEADER as SERVER_HEADER, clientAddressMiddleware } from "../../scripts/serve.mjs";
+import {
+  CLIENT_ADDRESS_HEADER as SERVER_HEADER,
+  clientAddressMiddleware,
+} from "../../scripts/serve.mjs";
 
 // The production server reports the socket's address to the app; a client cannot
 // choose the address sign-in throttling counts it under.
@@ -15,7 +18,9 @@ describe("the client address the server reports", () => {
     const app = express();
     app.use(clientAddressMiddleware);
     app.get("/who", (req, res) => {
-      const request = new Request("http://t/who", { headers: { [CLIENT_ADDRESS_HEADER]: String(req.headers[CLIENT_ADDRESS_HEADER] ?? "") } });
+      const request = new Request("http://t/who", {
+        headers: { [CLIENT_ADDRESS_HEADER]: String(req.headers[CLIENT_ADDRESS_HEADER] ?? "") },
+      });
       res.json({ address: clientAddress(request, false) });
     });
     const server = await new Promise<import("node:http").Server>((resolve) => {
@@ -31,7 +36,9 @@ describe("the client address the server reports", () => {
   });
 
   it("is the socket's address, whatever the client claims", async () => {
-    const res = await fetch(`${base}/who`, { headers: { [CLIENT_ADDRESS_HEADER]: "198.51.100.99" } });
+    const res = await fetch(`${base}/who`, {
+      headers: { [CLIENT_ADDRESS_HEADER]: "198.51.100.99" },
+    });
     const { address } = (await res.json()) as { address: string };
     expect(address).not.toBe("198.51.100.99");
     expect(address).toMatch(/127\.0\.0\.1$/); // IPv4, possibly IPv4-mapped IPv6

@@ -2,11 +2,11 @@
 // through a real session row and a signed cookie.
 import { randomBytes } from "node:crypto";
 import type { Role, User } from "../../db/schema";
-import { hashPassword } from "~/lib/auth.server";
+import { hashPassword } from "~/lib/auth/auth.server";
 import type { Db } from "~/lib/db.server";
 import { getDb } from "~/lib/db.server";
 import { env } from "~/lib/env.server";
-import { createSession } from "~/lib/session.server";
+import { createSession } from "~/lib/auth/session.server";
 
 export const TEST_PASSWORD = "bench-test-pass-4417";
 
@@ -15,7 +15,9 @@ export type TestUser = User & { password: string };
 export async function createTestUser(
   db: Db,
   role: Role,
-  overrides: Partial<Pick<User, "email" | "name" | "disabled_at">> & { password?: string | null } = {},
+  overrides: Partial<Pick<User, "email" | "name" | "disabled_at">> & {
+    password?: string | null;
+  } = {},
 ): Promise<TestUser> {
   const tag = randomBytes(5).toString("hex");
   const password = overrides.password === undefined ? TEST_PASSWORD : overrides.password;
@@ -40,8 +42,15 @@ export async function cookieFor(user: Pick<User, "id">, db: Db = getDb()): Promi
 }
 
 /** A Request as this user; relative URLs resolve against APP_URL; posts carry our Origin. */
-export async function requestAs(user: Pick<User, "id">, url: string, init: RequestInit = {}): Promise<Request> {
-  return signedOutRequest(url, { ...init, headers: withCookie(init.headers, await cookieFor(user)) });
+export async function requestAs(
+  user: Pick<User, "id">,
+  url: string,
+  init: RequestInit = {},
+): Promise<Request> {
+  return signedOutRequest(url, {
+    ...init,
+    headers: withCookie(init.headers, await cookieFor(user)),
+  });
 }
 
 /** A Request with no session; posts carry our Origin unless the caller set one. */
@@ -49,7 +58,8 @@ export function signedOutRequest(url: string, init: RequestInit = {}): Request {
   const absolute = new URL(url, env().APP_URL);
   const headers = new Headers(init.headers);
   const method = (init.method ?? "GET").toUpperCase();
-  if (method !== "GET" && method !== "HEAD" && !headers.has("Origin")) headers.set("Origin", absolute.origin);
+  if (method !== "GET" && method !== "HEAD" && !headers.has("Origin"))
+    headers.set("Origin", absolute.origin);
   return new Request(absolute, { ...init, headers });
 }
 

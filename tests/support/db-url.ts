@@ -9,9 +9,15 @@ export function withDatabase(url: string, name: string): string {
 }
 
 export function testDatabaseUrl(): string {
-  return process.env.TEST_DATABASE_URL ?? withDatabase(process.env.DATABASE_URL ?? LOCAL_DEFAULT_URL, "torquewright_test");
+  return (
+    process.env.TEST_DATABASE_URL ??
+    withDatabase(process.env.DATABASE_URL ?? LOCAL_DEFAULT_URL, "torquewright_test")
+  );
 }
 
 export function e2eDatabaseUrl(): string {
-  return process.env.E2E_DATABASE_URL ?? withDatabase(process.env.DATABASE_URL ?? LOCAL_DEFAULT_URL, "torquewright_e2e");
+  return (
+    process.env.E2E_DATABASE_URL ??
+    withDatabase(process.env.DATABASE_URL ?? LOCAL_DEFAULT_URL, "torquewright_e2e")
+  );
 }

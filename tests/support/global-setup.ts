@@ -7,5 +7,8 @@ export default function setup() {
   const url = testDatabaseUrl();
   const name = new URL(url).pathname.slice(1);
   if (name === "torquewright") throw new Error("tests refuse to run against the demo database");
-  execFileSync("npx", ["tsx", "db/reset.ts"], { env: { ...process.env, DATABASE_URL: url }, stdio: "inherit" });
+  execFileSync("npx", ["tsx", "db/reset.ts"], {
+    env: { ...process.env, DATABASE_URL: url },
+    stdio: "inherit",
+  });
 }

@@ -1,8 +1,16 @@
 // Reading the local mail catcher from tests, over its HTTP API.
 export type CaughtSummary = { id: string; to: string[]; subject: string; receivedAt: string };
-export type Caught = CaughtSummary & { text: string; html: string | null; messageId: string | null };
+export type Caught = CaughtSummary & {
+  text: string;
+  html: string | null;
+  messageId: string | null;
+};
 
-export async function waitFor<T>(probe: () => Promise<T | null | undefined | false>, timeoutMs = 15_000, what = "condition"): Promise<T> {
+export async function waitFor<T>(
+  probe: () => Promise<T | null | undefined | false>,
+  timeoutMs = 15_000,
+  what = "condition",
+): Promise<T> {
   const until = Date.now() + timeoutMs;
   for (;;) {
     const value = await probe();
@@ -28,7 +36,10 @@ export async function mailFor(apiUrl: string, to: string, timeoutMs = 15_000): P
 }
 
 export function linkIn(text: string, pathPrefix: string): URL {
-  const match = text.match(/https?:\/\/\S+/g)?.map((u) => new URL(u)).find((u) => u.pathname.startsWith(pathPrefix));
+  const match = text
+    .match(/https?:\/\/\S+/g)
+    ?.map((u) => new URL(u))
+    .find((u) => u.pathname.startsWith(pathPrefix));
   if (!match) throw new Error(`no ${pathPrefix} link in:\n${text}`);
   return match;
 }

@@ -13,14 +13,20 @@ export async function run(fn: () => Promise<unknown>): Promise<RouteOutcome> {
 }
 
 function read(v: any): RouteOutcome {
-  if (v instanceof Response) return { status: v.status, value: v, location: v.headers.get("Location") };
+  if (v instanceof Response)
+    return { status: v.status, value: v, location: v.headers.get("Location") };
   return { status: v?.init?.status ?? 200, value: v?.data ?? v, location: null };
 }
 
 /** The loader/action arguments for a request (and the route's params). */
-export const args = (request: Request, params: Record<string, string> = {}) => ({ request, params, context: {} }) as never;
+export const args = (request: Request, params: Record<string, string> = {}) =>
+  ({ request, params, context: {} }) as never;
 
 /** A same-origin form post as this user. */
-export async function post(who: Pick<TestUser, "id">, path: string, body: Record<string, string>): Promise<Request> {
+export async function post(
+  who: Pick<TestUser, "id">,
+  path: string,
+  body: Record<string, string>,
+): Promise<Request> {
   return requestAs(who, path, { method: "POST", body: form(body) });
 }

@@ -1,11 +1,24 @@
 // On a phone the bench is one long column: this strip of the key figures stays at the top
 // of the screen while a builder works down the slots, and leads to the full results.
-import type { BenchComputation, BenchFinding } from "~/lib/bench";
-import { show, type Units } from "~/lib/bench-units";
+import type { BenchComputation, BenchFinding } from "~/lib/bench/spec";
+import { show, type Units } from "~/lib/bench/units";
 
-export function BenchSummary({ computation, findings, units, pending }: { computation: BenchComputation; findings: BenchFinding[]; units: Units; pending: boolean }) {
+export function BenchSummary({
+  computation,
+  findings,
+  units,
+  pending,
+}: {
+  computation: BenchComputation;
+  findings: BenchFinding[];
+  units: Units;
+  pending: boolean;
+}) {
   const r = computation.results;
-  const disp = units === "inch" ? { text: r.displacementCi === null ? "—" : r.displacementCi.toFixed(1), unit: "ci" } : { text: r.displacementCc === null ? "—" : r.displacementCc.toFixed(0), unit: "cc" };
+  const disp =
+    units === "inch"
+      ? { text: r.displacementCi === null ? "—" : r.displacementCi.toFixed(1), unit: "ci" }
+      : { text: r.displacementCc === null ? "—" : r.displacementCc.toFixed(0), unit: "cc" };
   const figures = [
     { label: "Displ.", ...disp },
     { label: "Static", ...show(r.staticCr, "ratio", units) },
@@ -32,8 +45,14 @@ export function BenchSummary({ computation, findings, units, pending }: { comput
       ))}
       <span className="ml-auto flex shrink-0 flex-col text-right leading-tight">
         <span className="text-[11px] text-steel-300">{pending ? "checking…" : "Findings"}</span>
-        <span className={`text-sm font-semibold ${conflicts ? "text-[#ff9d97]" : upgrades ? "text-[#ffd27a]" : "text-white"}`}>
-          {conflicts ? `${conflicts} conflict${conflicts > 1 ? "s" : ""}` : upgrades ? `${upgrades} upgrade${upgrades > 1 ? "s" : ""}` : "none tripped"}
+        <span
+          className={`text-sm font-semibold ${conflicts ? "text-[#ff9d97]" : upgrades ? "text-[#ffd27a]" : "text-white"}`}
+        >
+          {conflicts
+            ? `${conflicts} conflict${conflicts > 1 ? "s" : ""}`
+            : upgrades
+              ? `${upgrades} upgrade${upgrades > 1 ? "s" : ""}`
+              : "none tripped"}
         </span>
       </span>
     </a>

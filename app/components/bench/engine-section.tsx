@@ -2,8 +2,8 @@
 // numbers: barrel (bore), head chamber, gasket, piston crown with dome or dish, rod and
 // crank throw (stroke). Lengths are to scale; deck and gasket are drawn six times
 // thicker so they can be read. Missing figures are drawn at typical sizes, dashed.
-import type { Resolved } from "~/lib/bench";
-import { fmtLine, type Units } from "~/lib/bench-units";
+import type { Resolved } from "~/lib/bench/spec";
+import { fmtLine, type Units } from "~/lib/bench/units";
 
 const S = 1.1; // px per mm
 const THIN = 6; // deck and gasket exaggeration
@@ -53,7 +53,13 @@ export function EngineSection({ fields, deckClearanceMm, units }: SectionNumbers
   const label = `Section of one cylinder: bore ${fmtLine(bore.v, "length", units)}, stroke ${fmtLine(stroke.v, "length", units)}, rod ${fmtLine(rod.v, "length", units)}, deck ${fmtLine(deck.v, "length", units)}, gasket ${fmtLine(gThick.v, "length", units)}${dome ? `, ${dome > 0 ? "dome" : "dish"} ${Math.abs(dome).toFixed(1)} cc` : ""}.`;
 
   return (
-    <svg viewBox={`0 0 ${W} ${height}`} role="img" aria-label={label} className="h-auto w-full max-w-[260px]" data-testid="engine-section">
+    <svg
+      viewBox={`0 0 ${W} ${height}`}
+      role="img"
+      aria-label={label}
+      className="h-auto w-full max-w-[260px]"
+      data-testid="engine-section"
+    >
       <rect x="0" y="0" width={W} height={height} rx="6" fill="#0d1b2a" />
       {/* head with its chamber */}
       <path
@@ -77,8 +83,22 @@ export function EngineSection({ fields, deckClearanceMm, units }: SectionNumbers
         />
       ))}
       {/* barrel walls */}
-      <rect x={CX - b / 2 - wall} y={deckY} width={wall} height={barrelBottom - deckY} fill="#9aa7b4" opacity={bore.typical ? 0.5 : 1} />
-      <rect x={CX + b / 2} y={deckY} width={wall} height={barrelBottom - deckY} fill="#9aa7b4" opacity={bore.typical ? 0.5 : 1} />
+      <rect
+        x={CX - b / 2 - wall}
+        y={deckY}
+        width={wall}
+        height={barrelBottom - deckY}
+        fill="#9aa7b4"
+        opacity={bore.typical ? 0.5 : 1}
+      />
+      <rect
+        x={CX + b / 2}
+        y={deckY}
+        width={wall}
+        height={barrelBottom - deckY}
+        fill="#9aa7b4"
+        opacity={bore.typical ? 0.5 : 1}
+      />
       {/* piston at TDC, dome above the crown or dish below it */}
       <path
         d={`M ${CX - b / 2 + 1} ${crownY} Q ${CX} ${crownY - domeH * 2} ${CX + b / 2 - 1} ${crownY} V ${crownY + pistonH} H ${CX - b / 2 + 1} Z`}
@@ -89,18 +109,67 @@ export function EngineSection({ fields, deckClearanceMm, units }: SectionNumbers
       <rect x={CX - b / 2 + 1} y={crownY + 5} width={b - 2} height="2" fill="#9aa7b4" />
       <rect x={CX - b / 2 + 1} y={crownY + 10} width={b - 2} height="2" fill="#9aa7b4" />
       {/* rod and crank throw */}
-      <line x1={CX} y1={pinY} x2={CX} y2={crankPinY} stroke="#c5ced8" strokeWidth="10" strokeLinecap="round" strokeDasharray={rod.typical ? "6 4" : undefined} data-testid="section-rod" />
+      <line
+        x1={CX}
+        y1={pinY}
+        x2={CX}
+        y2={crankPinY}
+        stroke="#c5ced8"
+        strokeWidth="10"
+        strokeLinecap="round"
+        strokeDasharray={rod.typical ? "6 4" : undefined}
+        data-testid="section-rod"
+      />
       <circle cx={CX} cy={pinY} r="5" fill="#0d1b2a" stroke="#f4f6f8" strokeWidth="2" />
-      <circle cx={CX} cy={crankY} r={wheelR} fill="none" stroke="#6b7886" strokeWidth="6" strokeDasharray={stroke.typical ? "6 4" : undefined} />
-      <circle cx={CX} cy={crankY} r={throwR} fill="none" stroke="#0f8b8d" strokeWidth="1.5" strokeDasharray="4 3" data-testid="section-throw" />
+      <circle
+        cx={CX}
+        cy={crankY}
+        r={wheelR}
+        fill="none"
+        stroke="#6b7886"
+        strokeWidth="6"
+        strokeDasharray={stroke.typical ? "6 4" : undefined}
+      />
+      <circle
+        cx={CX}
+        cy={crankY}
+        r={throwR}
+        fill="none"
+        stroke="#0f8b8d"
+        strokeWidth="1.5"
+        strokeDasharray="4 3"
+        data-testid="section-throw"
+      />
       <circle cx={CX} cy={crankPinY} r="7" fill="#0f8b8d" />
       <circle cx={CX} cy={crankY} r="5" fill="#f4f6f8" />
       {/* dimension lines */}
-      <g fill="#f4f6f8" fontSize="9" fontFamily="inherit" stroke="#0d1b2a" strokeWidth="3" paintOrder="stroke" strokeLinejoin="round">
-        <line x1={CX - b / 2} y1={barrelBottom + 8} x2={CX + b / 2} y2={barrelBottom + 8} stroke="#f4f6f8" strokeWidth="0.8" paintOrder="normal" />
-        <text x={CX} y={barrelBottom + 19} textAnchor="middle">bore {fmtLine(bore.v, "length", units)}</text>
-        <text x={W - 6} y={crankY + 3} textAnchor="end">stroke {fmtLine(stroke.v, "length", units)}</text>
-        <text x={8} y={height - 6} fill="#9aa7b4">deck and gasket ×{THIN}</text>
+      <g
+        fill="#f4f6f8"
+        fontSize="9"
+        fontFamily="inherit"
+        stroke="#0d1b2a"
+        strokeWidth="3"
+        paintOrder="stroke"
+        strokeLinejoin="round"
+      >
+        <line
+          x1={CX - b / 2}
+          y1={barrelBottom + 8}
+          x2={CX + b / 2}
+          y2={barrelBottom + 8}
+          stroke="#f4f6f8"
+          strokeWidth="0.8"
+          paintOrder="normal"
+        />
+        <text x={CX} y={barrelBottom + 19} textAnchor="middle">
+          bore {fmtLine(bore.v, "length", units)}
+        </text>
+        <text x={W - 6} y={crankY + 3} textAnchor="end">
+          stroke {fmtLine(stroke.v, "length", units)}
+        </text>
+        <text x={8} y={height - 6} fill="#9aa7b4">
+          deck and gasket ×{THIN}
+        </text>
       </g>
     </svg>
   );

@@ -1,27 +1,75 @@
 // The package's own numbers on the bench: measured deck clearance, rev limit, and the
 // power figure with its basis (what the fit rules' power thresholds read).
 import { useId } from "react";
-import type { BenchSpec } from "~/lib/bench";
-import { fmtLine, inputValue, type Units } from "~/lib/bench-units";
-import type { QueuedAction } from "~/lib/bench-queue";
+import type { BenchSpec } from "~/lib/bench/spec";
+import { fmtLine, inputValue, type Units } from "~/lib/bench/units";
+import type { QueuedAction } from "~/lib/bench/queue";
 import { inToMm } from "../../../calc";
 
 type Field = "deckClearanceMm" | "revLimitRpm" | "powerHp";
 
-export function PackageNumbers(props: { spec: BenchSpec; units: Units; errors: Record<string, string[]>; canEdit: boolean; submit: (a: QueuedAction) => void }) {
+export function PackageNumbers(props: {
+  spec: BenchSpec;
+  units: Units;
+  errors: Record<string, string[]>;
+  canEdit: boolean;
+  submit: (a: QueuedAction) => void;
+}) {
   const { spec, units } = props;
   const send = (field: Field, text: string) => {
-    const unit = field === "deckClearanceMm" ? (units === "inch" ? "in" : "mm") : field === "revLimitRpm" ? "rpm" : "hp";
+    const unit =
+      field === "deckClearanceMm"
+        ? units === "inch"
+          ? "in"
+          : "mm"
+        : field === "revLimitRpm"
+          ? "rpm"
+          : "hp";
     const n = Number(text.trim().replace(",", "."));
     const ok = text.trim() === "" || Number.isFinite(n);
     const value = text.trim() === "" ? null : unit === "in" ? inToMm(n) : n;
-    props.submit({ fields: { intent: "set-number", field, value: text, unit }, intent: ok ? { intent: "set-number", field, value } : null, key: field });
+    props.submit({
+      fields: { intent: "set-number", field, value: text, unit },
+      intent: ok ? { intent: "set-number", field, value } : null,
+      key: field,
+    });
   };
   return (
-    <section aria-label="Package numbers" className="grid grid-cols-1 gap-2 rounded border border-steel-200 bg-white p-2 text-sm sm:grid-cols-4">
-      <NumberInput label="Deck clearance (measured)" hint="+ below the deck" unit={units === "inch" ? "in" : "mm"} value={inputValue(spec.deckClearanceMm, "length", units)} shown={fmtLine(spec.deckClearanceMm, "length", units)} error={props.errors.deckClearanceMm} canEdit={props.canEdit} onSave={(t) => send("deckClearanceMm", t)} name="deckClearanceMm" />
-      <NumberInput label="Rev limit" unit="rpm" value={spec.revLimitRpm == null ? "" : String(spec.revLimitRpm)} shown={fmtLine(spec.revLimitRpm, "rpm", units)} error={props.errors.revLimitRpm} canEdit={props.canEdit} onSave={(t) => send("revLimitRpm", t)} name="revLimitRpm" />
-      <NumberInput label="Power" unit="hp" value={spec.powerHp == null ? "" : String(spec.powerHp)} shown={fmtLine(spec.powerHp, "hp", units)} error={props.errors.powerHp} canEdit={props.canEdit} onSave={(t) => send("powerHp", t)} name="powerHp" />
+    <section
+      aria-label="Package numbers"
+      className="grid grid-cols-1 gap-2 rounded border border-steel-200 bg-white p-2 text-sm sm:grid-cols-4"
+    >
+      <NumberInput
+        label="Deck clearance (measured)"
+        hint="+ below the deck"
+        unit={units === "inch" ? "in" : "mm"}
+        value={inputValue(spec.deckClearanceMm, "length", units)}
+        shown={fmtLine(spec.deckClearanceMm, "length", units)}
+        error={props.errors.deckClearanceMm}
+        canEdit={props.canEdit}
+        onSave={(t) => send("deckClearanceMm", t)}
+        name="deckClearanceMm"
+      />
+      <NumberInput
+        label="Rev limit"
+        unit="rpm"
+        value={spec.revLimitRpm == null ? "" : String(spec.revLimitRpm)}
+        shown={fmtLine(spec.revLimitRpm, "rpm", units)}
+        error={props.errors.revLimitRpm}
+        canEdit={props.canEdit}
+        onSave={(t) => send("revLimitRpm", t)}
+        name="revLimitRpm"
+      />
+      <NumberInput
+        label="Power"
+        unit="hp"
+        value={spec.powerHp == null ? "" : String(spec.powerHp)}
+        shown={fmtLine(spec.powerHp, "hp", units)}
+        error={props.errors.powerHp}
+        canEdit={props.canEdit}
+        onSave={(t) => send("powerHp", t)}
+        name="powerHp"
+      />
       <div>
         <label htmlFor="power-basis" className="block text-xs text-steel-700">
           Power basis
@@ -30,16 +78,31 @@ export function PackageNumbers(props: { spec: BenchSpec; units: Units; errors: R
           <select
             id="power-basis"
             value={spec.powerBasis ?? ""}
-            onChange={(e) => props.submit({ fields: { intent: "set-basis", value: e.target.value }, intent: { intent: "set-basis", value: (e.target.value || null) as "target" | "estimate" | null }, key: "powerBasis" })}
+            onChange={(e) =>
+              props.submit({
+                fields: { intent: "set-basis", value: e.target.value },
+                intent: {
+                  intent: "set-basis",
+                  value: (e.target.value || null) as "target" | "estimate" | null,
+                },
+                key: "powerBasis",
+              })
+            }
             className="mt-0.5 w-full rounded border border-steel-300 px-1 py-1"
           >
             <option value="">—</option>
             <option value="target">Target</option>
             <option value="estimate">Estimate</option>
-            {spec.powerBasis === "measured" ? <option value="measured" disabled>Measured (dyno)</option> : null}
+            {spec.powerBasis === "measured" ? (
+              <option value="measured" disabled>
+                Measured (dyno)
+              </option>
+            ) : null}
           </select>
         ) : (
-          <p id="power-basis" className="font-semibold">{spec.powerBasis ?? "—"}</p>
+          <p id="power-basis" className="font-semibold">
+            {spec.powerBasis ?? "—"}
+          </p>
         )}
         <p className="mt-0.5 text-xs text-steel-700">Measured once a dyno run is logged.</p>
       </div>
@@ -47,7 +110,17 @@ export function PackageNumbers(props: { spec: BenchSpec; units: Units; errors: R
   );
 }
 
-function NumberInput(props: { label: string; hint?: string; unit: string; value: string; shown: string; error?: string[]; canEdit: boolean; onSave: (text: string) => void; name: string }) {
+function NumberInput(props: {
+  label: string;
+  hint?: string;
+  unit: string;
+  value: string;
+  shown: string;
+  error?: string[];
+  canEdit: boolean;
+  onSave: (text: string) => void;
+  name: string;
+}) {
   const id = useId();
   if (!props.canEdit) {
     return (

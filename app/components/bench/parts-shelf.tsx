@@ -3,12 +3,18 @@
 import { useDraggable } from "@dnd-kit/core";
 import { useEffect, useId, useRef, useState } from "react";
 import { useFetcher } from "react-router";
-import type { BenchPart } from "~/lib/bench";
-import { SLOTS } from "~/lib/slots";
+import type { BenchPart } from "~/lib/bench/spec";
+import { SLOTS } from "~/lib/packages/slots";
 
 const DEBOUNCE_MS = 200;
 
-export function PartsShelf({ onParts, canEdit }: { onParts: (parts: BenchPart[]) => void; canEdit: boolean }) {
+export function PartsShelf({
+  onParts,
+  canEdit,
+}: {
+  onParts: (parts: BenchPart[]) => void;
+  canEdit: boolean;
+}) {
   const fetcher = useFetcher<{ parts: BenchPart[] }>();
   const [q, setQ] = useState("");
   const [category, setCategory] = useState("");
@@ -18,7 +24,10 @@ export function PartsShelf({ onParts, canEdit }: { onParts: (parts: BenchPart[])
 
   useEffect(() => {
     clearTimeout(timer.current);
-    timer.current = setTimeout(() => load(`/api/parts?${new URLSearchParams({ q, category })}`), q ? DEBOUNCE_MS : 0);
+    timer.current = setTimeout(
+      () => load(`/api/parts?${new URLSearchParams({ q, category })}`),
+      q ? DEBOUNCE_MS : 0,
+    );
     return () => clearTimeout(timer.current);
   }, [q, category, load]);
 
@@ -31,7 +40,10 @@ export function PartsShelf({ onParts, canEdit }: { onParts: (parts: BenchPart[])
   const categories = SLOTS.map((s) => ({ slug: s.category, label: s.label }));
   return (
     <section aria-labelledby={`${searchId}-h`} className="flex flex-col gap-2">
-      <h2 id={`${searchId}-h`} className="text-sm font-semibold uppercase tracking-wider text-steel-700">
+      <h2
+        id={`${searchId}-h`}
+        className="text-sm font-semibold uppercase tracking-wider text-steel-700"
+      >
         Parts shelf
       </h2>
       <div className="flex gap-1">
@@ -64,10 +76,17 @@ export function PartsShelf({ onParts, canEdit }: { onParts: (parts: BenchPart[])
         </select>
       </div>
       <p className="text-xs text-steel-700" aria-live="polite">
-        {fetcher.state === "loading" ? "Searching…" : `${parts.length} part${parts.length === 1 ? "" : "s"}`}
-        {canEdit ? " · drag a card onto its slot, or focus it and press Space, an arrow, then Space" : ""}
+        {fetcher.state === "loading"
+          ? "Searching…"
+          : `${parts.length} part${parts.length === 1 ? "" : "s"}`}
+        {canEdit
+          ? " · drag a card onto its slot, or focus it and press Space, an arrow, then Space"
+          : ""}
       </p>
-      <ul className="flex max-h-[70vh] flex-col gap-1.5 overflow-y-auto pr-1" data-testid="shelf-list">
+      <ul
+        className="flex max-h-[70vh] flex-col gap-1.5 overflow-y-auto pr-1"
+        data-testid="shelf-list"
+      >
         {parts.map((p) => (
           <li key={p.id}>
             <PartCard part={p} canEdit={canEdit} />
@@ -79,7 +98,11 @@ export function PartsShelf({ onParts, canEdit }: { onParts: (parts: BenchPart[])
 }
 
 export function PartCard({ part, canEdit }: { part: BenchPart; canEdit: boolean }) {
-  const { attributes, listeners, setNodeRef, isDragging } = useDraggable({ id: `part-${part.id}`, data: { part }, disabled: !canEdit });
+  const { attributes, listeners, setNodeRef, isDragging } = useDraggable({
+    id: `part-${part.id}`,
+    data: { part },
+    disabled: !canEdit,
+  });
   const category = SLOTS.find((s) => s.category === part.category)?.label ?? part.category;
   return (
     <div
@@ -100,7 +123,9 @@ export function PartCardBody({ part, category }: { part: BenchPart; category: st
     <>
       <div className="flex items-baseline justify-between gap-2">
         <span className="font-medium text-ink">{part.name}</span>
-        {part.priceCents != null ? <span className="num text-xs text-steel-700">${(part.priceCents / 100).toFixed(2)}</span> : null}
+        {part.priceCents != null ? (
+          <span className="num text-xs text-steel-700">${(part.priceCents / 100).toFixed(2)}</span>
+        ) : null}
       </div>
       <div className="flex flex-wrap gap-x-2 text-xs text-steel-700">
         <span className="num">{part.partNumber}</span>

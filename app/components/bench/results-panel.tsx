@@ -2,10 +2,24 @@
 // findings (conflicts, then upgrades with the suggested part one click away, then
 // cautions), the work shown, and the compression-target solver.
 import { useMemo, useState } from "react";
-import { DCR_NOTE, solveChamberCcForRatio, solveDomeCcForRatio, solveGasketThicknessForRatio, type SpecInput, type SpecResults } from "../../../calc";
-import { benchSteps, FIELD_LABELS, type BenchComputation, type BenchFinding, type BenchPart, type Resolved } from "~/lib/bench";
-import { show, type Quantity, type Units } from "~/lib/bench-units";
-import { SLOTS } from "~/lib/slots";
+import {
+  DCR_NOTE,
+  solveChamberCcForRatio,
+  solveDomeCcForRatio,
+  solveGasketThicknessForRatio,
+  type SpecInput,
+  type SpecResults,
+} from "../../../calc";
+import {
+  benchSteps,
+  FIELD_LABELS,
+  type BenchComputation,
+  type BenchFinding,
+  type BenchPart,
+  type Resolved,
+} from "~/lib/bench/spec";
+import { show, type Quantity, type Units } from "~/lib/bench/units";
+import { SLOTS } from "~/lib/packages/slots";
 
 const ROWS: { key: keyof SpecResults; label: string; q: Quantity | "ci" | "cc" | "plain" }[] = [
   { key: "displacementCi", label: "Displacement", q: "ci" },
@@ -20,8 +34,10 @@ const ROWS: { key: keyof SpecResults; label: string; q: Quantity | "ci" | "cc" |
 ];
 
 function cell(v: number | null, q: (typeof ROWS)[number]["q"], units: Units) {
-  if (q === "ci") return v === null ? { text: "—", unit: "ci" } : { text: v.toFixed(1), unit: "ci" };
-  if (q === "cc") return v === null ? { text: "—", unit: "cc" } : { text: v.toFixed(0), unit: "cc" };
+  if (q === "ci")
+    return v === null ? { text: "—", unit: "ci" } : { text: v.toFixed(1), unit: "ci" };
+  if (q === "cc")
+    return v === null ? { text: "—", unit: "cc" } : { text: v.toFixed(0), unit: "cc" };
   if (q === "plain") return { text: v === null ? "—" : v.toFixed(3), unit: "" };
   return show(v, q, units);
 }
@@ -40,20 +56,33 @@ export function ResultsPanel(props: {
   revLimitRpm: number | null;
   canEdit: boolean;
   onUseSuggested: (slot: string, partId: number) => void;
-  onUseSolved: (slot: string, field: "pistonDomeCc" | "gasketThicknessMm" | "chamberCc", value: number) => void;
+  onUseSolved: (
+    slot: string,
+    field: "pistonDomeCc" | "gasketThicknessMm" | "chamberCc",
+    value: number,
+  ) => void;
 }) {
   const { computation: c, units } = props;
   const order = { conflict: 0, upgrade: 1, caution: 2 } as const;
   // rules that could not be checked are not passes: they get their own list, apart from what the rules found
-  const findings = props.findings.filter((f) => !f.error).sort((a, b) => order[a.kind] - order[b.kind]);
+  const findings = props.findings
+    .filter((f) => !f.error)
+    .sort((a, b) => order[a.kind] - order[b.kind]);
   const unchecked = props.findings.filter((f) => f.error);
   return (
     <section aria-labelledby="results-h" className="flex flex-col gap-3">
       <div className="flex items-center justify-between">
-        <h2 id="results-h" className="text-sm font-semibold uppercase tracking-wider text-steel-700">
+        <h2
+          id="results-h"
+          className="text-sm font-semibold uppercase tracking-wider text-steel-700"
+        >
           Results
         </h2>
-        <div role="group" aria-label="Units" className="flex overflow-hidden rounded border border-steel-300 text-xs">
+        <div
+          role="group"
+          aria-label="Units"
+          className="flex overflow-hidden rounded border border-steel-300 text-xs"
+        >
           {(["inch", "metric"] as const).map((u) => (
             <button
               key={u}
@@ -71,26 +100,39 @@ export function ResultsPanel(props: {
         {ROWS.map((r) => {
           const v = cell(c.results[r.key], r.q, units);
           return (
-            <div key={r.key} className="rounded border border-steel-200 bg-white px-2 py-1.5" data-testid={`result-${r.key}`}>
+            <div
+              key={r.key}
+              className="rounded border border-steel-200 bg-white px-2 py-1.5"
+              data-testid={`result-${r.key}`}
+            >
               <dt className="text-xs text-steel-700">{r.label}</dt>
               <dd className="num text-lg font-semibold text-ink">
                 {v.text}
-                {v.unit ? <span className="ml-1 text-xs font-normal text-steel-700">{v.unit}</span> : null}
+                {v.unit ? (
+                  <span className="ml-1 text-xs font-normal text-steel-700">{v.unit}</span>
+                ) : null}
               </dd>
             </div>
           );
         })}
       </dl>
       {props.revLimitRpm ? (
-        <p className="text-xs text-steel-700">Piston speeds at the rev limit, {props.revLimitRpm} rpm.</p>
+        <p className="text-xs text-steel-700">
+          Piston speeds at the rev limit, {props.revLimitRpm} rpm.
+        </p>
       ) : (
         <p className="text-xs text-steel-700">Set a rev limit to see piston speeds.</p>
       )}
       {c.missing.length > 0 ? (
-        <p className="text-xs text-steel-700">Still needed for every figure: {c.missing.map(fieldLabel).join(", ")}.</p>
+        <p className="text-xs text-steel-700">
+          Still needed for every figure: {c.missing.map(fieldLabel).join(", ")}.
+        </p>
       ) : null}
       {c.inputErrors.length > 0 ? (
-        <ul className="rounded border border-red bg-red/5 p-2 text-sm text-red-text" data-testid="input-errors">
+        <ul
+          className="rounded border border-red bg-red/5 p-2 text-sm text-red-text"
+          data-testid="input-errors"
+        >
           {c.inputErrors.map((e, i) => (
             <li key={i}>
               Not computed: {fieldLabel(e.field)} {e.message}.
@@ -101,28 +143,56 @@ export function ResultsPanel(props: {
 
       <div aria-live="polite" data-testid="findings">
         <h3 className="text-sm font-semibold text-ink">
-          Findings {props.findingsStale ? <span className="font-normal text-steel-700">· checking…</span> : null}
+          Findings{" "}
+          {props.findingsStale ? (
+            <span className="font-normal text-steel-700">· checking…</span>
+          ) : null}
         </h3>
-        {findings.length === 0 && c.cautions.length === 0 ? <p className="text-sm text-steel-700">No fit rule or limit is tripped.</p> : null}
+        {findings.length === 0 && c.cautions.length === 0 ? (
+          <p className="text-sm text-steel-700">No fit rule or limit is tripped.</p>
+        ) : null}
         <ul className="mt-1 flex flex-col gap-1.5">
           {findings.map((f) => (
-            <FindingItem key={`${f.ruleId}-${f.ruleVersion}`} f={f} parts={props.parts} canEdit={props.canEdit} onUse={props.onUseSuggested} />
+            <FindingItem
+              key={`${f.ruleId}-${f.ruleVersion}`}
+              f={f}
+              parts={props.parts}
+              canEdit={props.canEdit}
+              onUse={props.onUseSuggested}
+            />
           ))}
           {c.cautions.map((k) => (
-            <li key={k.code} className="rounded border-l-4 border-amber bg-white p-2 text-sm" data-testid="caution">
+            <li
+              key={k.code}
+              className="rounded border-l-4 border-amber bg-white p-2 text-sm"
+              data-testid="caution"
+            >
               <p className="text-xs font-semibold uppercase text-amber-text">Caution · limit</p>
               <p>{k.message}</p>
             </li>
           ))}
         </ul>
         {unchecked.length > 0 ? (
-          <div className="mt-3 rounded border border-dashed border-steel-500 bg-steel-50 p-2" data-testid="unchecked">
-            <h4 className="text-xs font-semibold uppercase tracking-wide text-steel-700">Could not be checked · {unchecked.length}</h4>
-            <p className="text-xs text-steel-700">These rules need a figure or a part this package does not have yet. Not checked is not a pass: fill it in, or check by hand.</p>
+          <div
+            className="mt-3 rounded border border-dashed border-steel-500 bg-steel-50 p-2"
+            data-testid="unchecked"
+          >
+            <h4 className="text-xs font-semibold uppercase tracking-wide text-steel-700">
+              Could not be checked · {unchecked.length}
+            </h4>
+            <p className="text-xs text-steel-700">
+              These rules need a figure or a part this package does not have yet. Not checked is not
+              a pass: fill it in, or check by hand.
+            </p>
             <ul className="mt-1 flex flex-col gap-1">
               {unchecked.map((f) => (
-                <li key={`${f.ruleId}-${f.ruleVersion}`} className="text-sm" data-testid="finding-unchecked">
-                  <span className="font-semibold text-graphite">{f.ruleName}</span> <span className="text-steel-700">— {plainRuleError(f.error!)}</span>
+                <li
+                  key={`${f.ruleId}-${f.ruleVersion}`}
+                  className="text-sm"
+                  data-testid="finding-unchecked"
+                >
+                  <span className="font-semibold text-graphite">{f.ruleName}</span>{" "}
+                  <span className="text-steel-700">— {plainRuleError(f.error!)}</span>
                 </li>
               ))}
             </ul>
@@ -130,12 +200,18 @@ export function ResultsPanel(props: {
         ) : null}
       </div>
 
-      <Solver fields={props.fields} deckClearanceMm={props.deckClearanceMm} canEdit={props.canEdit} onUse={props.onUseSolved} />
+      <Solver
+        fields={props.fields}
+        deckClearanceMm={props.deckClearanceMm}
+        canEdit={props.canEdit}
+        onUse={props.onUseSolved}
+      />
 
       <WorkShown input={props.input} />
       <p className="text-xs text-steel-700" data-testid="bench-disclaimer">
-        Figures are for planning. Torque values and limits come from the parts maker's instructions; compression against
-        fuel is the tuner's call; brakes, axles and suspension are checked by a qualified technician.
+        Figures are for planning. Torque values and limits come from the parts maker's instructions;
+        compression against fuel is the tuner's call; brakes, axles and suspension are checked by a
+        qualified technician.
       </p>
     </section>
   );
@@ -146,33 +222,54 @@ function WorkShown({ input }: { input: SpecInput }) {
   // built only while open: the server sends figures, not their worked steps
   const steps = useMemo(() => (open ? benchSteps(input) : []), [open, input]);
   return (
-    <details className="rounded border border-steel-200 bg-white p-2 text-sm" onToggle={(e) => setOpen(e.currentTarget.open)}>
-        <summary className="cursor-pointer font-semibold text-ink">Show the work</summary>
-        <ol className="mt-2 flex flex-col gap-2" data-testid="work-steps">
-          {steps.map((s) => (
-            <li key={s.id}>
-              <p className="font-medium">{s.label}</p>
-              <p className="num font-mono text-xs text-steel-700">{s.formula}</p>
-              <p className="num font-mono text-xs">
-                {s.substituted}
-                {s.result !== null ? ` = ${Number(s.result.toPrecision(6))} ${s.unit}` : ""}
-              </p>
-            </li>
-          ))}
-        </ol>
-        <p className="mt-2 text-xs text-steel-700">{DCR_NOTE}</p>
-      </details>
+    <details
+      className="rounded border border-steel-200 bg-white p-2 text-sm"
+      onToggle={(e) => setOpen(e.currentTarget.open)}
+    >
+      <summary className="cursor-pointer font-semibold text-ink">Show the work</summary>
+      <ol className="mt-2 flex flex-col gap-2" data-testid="work-steps">
+        {steps.map((s) => (
+          <li key={s.id}>
+            <p className="font-medium">{s.label}</p>
+            <p className="num font-mono text-xs text-steel-700">{s.formula}</p>
+            <p className="num font-mono text-xs">
+              {s.substituted}
+              {s.result !== null ? ` = ${Number(s.result.toPrecision(6))} ${s.unit}` : ""}
+            </p>
+          </li>
+        ))}
+      </ol>
+      <p className="mt-2 text-xs text-steel-700">{DCR_NOTE}</p>
+    </details>
   );
 }
 
-function FindingItem({ f, parts, canEdit, onUse }: { f: BenchFinding; parts: ReadonlyMap<number, BenchPart>; canEdit: boolean; onUse: (slot: string, id: number) => void }) {
-  const style = { conflict: "border-red text-red-text", upgrade: "border-amber text-amber-text", caution: "border-steel-500 text-steel-700" }[f.kind];
+function FindingItem({
+  f,
+  parts,
+  canEdit,
+  onUse,
+}: {
+  f: BenchFinding;
+  parts: ReadonlyMap<number, BenchPart>;
+  canEdit: boolean;
+  onUse: (slot: string, id: number) => void;
+}) {
+  const style = {
+    conflict: "border-red text-red-text",
+    upgrade: "border-amber text-amber-text",
+    caution: "border-steel-500 text-steel-700",
+  }[f.kind];
   const slot = f.upgradeCategory ? SLOTS.find((s) => s.category === f.upgradeCategory) : undefined;
   const suggested = f.suggestedPartId != null ? parts.get(f.suggestedPartId) : undefined;
   return (
-    <li className={`rounded border-l-4 bg-white p-2 text-sm ${style.split(" ")[0]}`} data-testid={`finding-${f.kind}`}>
+    <li
+      className={`rounded border-l-4 bg-white p-2 text-sm ${style.split(" ")[0]}`}
+      data-testid={`finding-${f.kind}`}
+    >
       <p className={`text-xs font-semibold uppercase ${style.split(" ")[1]}`}>
-        {f.kind === "conflict" ? "Conflict" : f.kind === "upgrade" ? "Upgrade needed" : "Caution"} · {f.ruleName}
+        {f.kind === "conflict" ? "Conflict" : f.kind === "upgrade" ? "Upgrade needed" : "Caution"} ·{" "}
+        {f.ruleName}
         <span className="font-normal normal-case"> (rule v{f.ruleVersion})</span>
       </p>
       <p className="text-graphite">{f.message}</p>
@@ -183,7 +280,11 @@ function FindingItem({ f, parts, canEdit, onUse }: { f: BenchFinding; parts: Rea
         </p>
       ) : null}
       {canEdit && slot && f.suggestedPartId != null ? (
-        <button type="button" onClick={() => onUse(slot.key, f.suggestedPartId!)} className="mt-1 rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark">
+        <button
+          type="button"
+          onClick={() => onUse(slot.key, f.suggestedPartId!)}
+          className="mt-1 rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark"
+        >
           Use suggested part
         </button>
       ) : null}
@@ -193,11 +294,21 @@ function FindingItem({ f, parts, canEdit, onUse }: { f: BenchFinding; parts: Rea
 
 const SOLVE = {
   pistonDomeCc: { label: "Dome / dish", slot: "piston", unit: "cc", fn: solveDomeCcForRatio },
-  gasketThicknessMm: { label: "Gasket thickness", slot: "gasket", unit: "mm", fn: solveGasketThicknessForRatio },
+  gasketThicknessMm: {
+    label: "Gasket thickness",
+    slot: "gasket",
+    unit: "mm",
+    fn: solveGasketThicknessForRatio,
+  },
   chamberCc: { label: "Chamber", slot: "head", unit: "cc", fn: solveChamberCcForRatio },
 } as const;
 
-function Solver(props: { fields: Resolved; deckClearanceMm: number | null; canEdit: boolean; onUse: (slot: string, field: keyof typeof SOLVE, value: number) => void }) {
+function Solver(props: {
+  fields: Resolved;
+  deckClearanceMm: number | null;
+  canEdit: boolean;
+  onUse: (slot: string, field: keyof typeof SOLVE, value: number) => void;
+}) {
   const [field, setField] = useState<keyof typeof SOLVE>("pistonDomeCc");
   const [target, setTarget] = useState("10.0");
   const f = props.fields;
@@ -219,7 +330,12 @@ function Solver(props: { fields: Resolved; deckClearanceMm: number | null; canEd
         <label htmlFor="solve-field" className="text-steel-700">
           What
         </label>
-        <select id="solve-field" value={field} onChange={(e) => setField(e.target.value as keyof typeof SOLVE)} className="rounded border border-steel-300 px-1 py-0.5">
+        <select
+          id="solve-field"
+          value={field}
+          onChange={(e) => setField(e.target.value as keyof typeof SOLVE)}
+          className="rounded border border-steel-300 px-1 py-0.5"
+        >
           {Object.entries(SOLVE).map(([k, v]) => (
             <option key={k} value={k}>
               {v.label}
@@ -229,7 +345,13 @@ function Solver(props: { fields: Resolved; deckClearanceMm: number | null; canEd
         <label htmlFor="solve-target" className="text-steel-700">
           gives
         </label>
-        <input id="solve-target" inputMode="decimal" value={target} onChange={(e) => setTarget(e.target.value)} className="num w-16 rounded border border-steel-300 px-1 py-0.5" />
+        <input
+          id="solve-target"
+          inputMode="decimal"
+          value={target}
+          onChange={(e) => setTarget(e.target.value)}
+          className="num w-16 rounded border border-steel-300 px-1 py-0.5"
+        />
         <span className="text-steel-700">:1</span>
       </div>
       {answer.ok ? (
@@ -237,15 +359,23 @@ function Solver(props: { fields: Resolved; deckClearanceMm: number | null; canEd
           <span className="num font-semibold">
             {answer.value.toFixed(field === "gasketThicknessMm" ? 3 : 1)} {SOLVE[field].unit}
           </span>
-          {field === "pistonDomeCc" ? <span className="text-steel-700"> ({answer.value >= 0 ? "dome" : "dish"})</span> : null}
+          {field === "pistonDomeCc" ? (
+            <span className="text-steel-700"> ({answer.value >= 0 ? "dome" : "dish"})</span>
+          ) : null}
           {props.canEdit ? (
-            <button type="button" onClick={() => props.onUse(SOLVE[field].slot, field, Number(answer.value.toFixed(3)))} className="ml-2 rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark">
+            <button
+              type="button"
+              onClick={() => props.onUse(SOLVE[field].slot, field, Number(answer.value.toFixed(3)))}
+              className="ml-2 rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark"
+            >
               Use as measured value
             </button>
           ) : null}
         </p>
       ) : (
-        <p className="mt-1 text-xs text-steel-700">Needs: {answer.errors.map((e) => `${fieldLabel(e.field)} ${e.message}`).join("; ")}</p>
+        <p className="mt-1 text-xs text-steel-700">
+          Needs: {answer.errors.map((e) => `${fieldLabel(e.field)} ${e.message}`).join("; ")}
+        </p>
       )}
     </div>
   );

@@ -3,9 +3,15 @@
 // measured value typed over any of them.
 import { useDroppable } from "@dnd-kit/core";
 import { useId, useState } from "react";
-import { SLOT_FIELDS, type BenchPart, type MeasuredField, type Resolved, type SlotFill } from "~/lib/bench";
-import { fmtLine, inputValue, type Units } from "~/lib/bench-units";
-import type { SlotDef } from "~/lib/slots";
+import {
+  SLOT_FIELDS,
+  type BenchPart,
+  type MeasuredField,
+  type Resolved,
+  type SlotFill,
+} from "~/lib/bench/spec";
+import { fmtLine, inputValue, type Units } from "~/lib/bench/units";
+import type { SlotDef } from "~/lib/packages/slots";
 
 export interface SlotActions {
   pick(slot: string, partId: number): void;
@@ -29,11 +35,21 @@ export function SlotCard(props: {
   dragCategory: string | null;
 }) {
   const { slot, fill, part, options, units, canEdit, actions } = props;
-  const { setNodeRef, isOver } = useDroppable({ id: `slot-${slot.key}`, data: { slot: slot.key, category: slot.category }, disabled: !canEdit });
+  const { setNodeRef, isOver } = useDroppable({
+    id: `slot-${slot.key}`,
+    data: { slot: slot.key, category: slot.category },
+    disabled: !canEdit,
+  });
   const selectId = useId();
   const slotError = props.errors[slot.key];
   const fits = props.dragCategory === slot.category;
-  const ring = isOver ? (fits ? "ring-2 ring-teal" : "ring-2 ring-red") : fits ? "ring-2 ring-teal/40" : "";
+  const ring = isOver
+    ? fits
+      ? "ring-2 ring-teal"
+      : "ring-2 ring-red"
+    : fits
+      ? "ring-2 ring-teal/40"
+      : "";
   return (
     <section
       ref={setNodeRef}
@@ -44,7 +60,11 @@ export function SlotCard(props: {
       <div className="flex items-baseline justify-between gap-2">
         <h3 className="font-semibold text-ink">{slot.label}</h3>
         {part && canEdit ? (
-          <button type="button" onClick={() => actions.clear(slot.key)} className="text-xs text-steel-700 underline hover:text-ink">
+          <button
+            type="button"
+            onClick={() => actions.clear(slot.key)}
+            className="text-xs text-steel-700 underline hover:text-ink"
+          >
             Clear
           </button>
         ) : null}
@@ -52,8 +72,11 @@ export function SlotCard(props: {
       <p className="mt-0.5 min-h-5 text-steel-700" data-testid={`slot-${slot.key}-part`}>
         {part ? (
           <>
-            <span className="font-medium text-graphite">{part.name}</span> <span className="num text-xs">{part.partNumber}</span>
-            {part.stock ? <span className="ml-1 rounded bg-steel-100 px-1 text-xs">stock</span> : null}
+            <span className="font-medium text-graphite">{part.name}</span>{" "}
+            <span className="num text-xs">{part.partNumber}</span>
+            {part.stock ? (
+              <span className="ml-1 rounded bg-steel-100 px-1 text-xs">stock</span>
+            ) : null}
           </>
         ) : (
           <span className="italic">Empty — drop a part here or pick one</span>
@@ -67,7 +90,11 @@ export function SlotCard(props: {
           <select
             id={selectId}
             value={fill.partId ?? ""}
-            onChange={(e) => (e.target.value ? actions.pick(slot.key, Number(e.target.value)) : actions.clear(slot.key))}
+            onChange={(e) =>
+              e.target.value
+                ? actions.pick(slot.key, Number(e.target.value))
+                : actions.clear(slot.key)
+            }
             aria-invalid={slotError ? true : undefined}
             aria-describedby={slotError ? `${selectId}-err` : undefined}
             className="w-full rounded border border-steel-300 bg-white px-1.5 py-1 text-sm"
@@ -133,12 +160,20 @@ function MeasuredRow(props: {
           </span>
         ) : null}
         {props.canEdit && !showEditor ? (
-          <button type="button" className="ml-auto text-xs text-teal-text underline" onClick={() => setEditing(true)}>
+          <button
+            type="button"
+            className="ml-auto text-xs text-teal-text underline"
+            onClick={() => setEditing(true)}
+          >
             {r.measured ? "Change" : "Enter measured"}
           </button>
         ) : null}
         {props.canEdit && r.measured ? (
-          <button type="button" className="text-xs text-steel-700 underline" onClick={() => props.actions.revert(props.slotKey, props.field)}>
+          <button
+            type="button"
+            className="text-xs text-steel-700 underline"
+            onClick={() => props.actions.revert(props.slotKey, props.field)}
+          >
             Back to nominal
           </button>
         ) : null}
@@ -168,10 +203,17 @@ function MeasuredRow(props: {
             autoFocus={editing}
           />
           <span className="text-xs text-steel-700">{unit}</span>
-          <button type="submit" className="rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark">
+          <button
+            type="submit"
+            className="rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark"
+          >
             Save
           </button>
-          <button type="button" className="text-xs text-steel-700 underline" onClick={() => setEditing(false)}>
+          <button
+            type="button"
+            className="text-xs text-steel-700 underline"
+            onClick={() => setEditing(false)}
+          >
             Cancel
           </button>
         </form>

@@ -1,17 +1,33 @@
 // Shown when a save was refused because someone else saved first: what they changed,
 // who and when, and the user's own change kept to apply on top.
-import type { StaleInfo } from "~/lib/bench-queue";
+import type { StaleInfo } from "~/lib/bench/queue";
 
-export function StaleNotice({ info, mine, onApply, onDiscard }: { info: StaleInfo; mine: number; onApply: () => void; onDiscard: () => void }) {
+export function StaleNotice({
+  info,
+  mine,
+  onApply,
+  onDiscard,
+}: {
+  info: StaleInfo;
+  mine: number;
+  onApply: () => void;
+  onDiscard: () => void;
+}) {
   const s = info.stale;
   return (
-    <section role="alert" aria-labelledby="stale-h" className="mb-3 rounded border-2 border-amber bg-white p-3 text-sm" data-testid="stale-notice">
+    <section
+      role="alert"
+      aria-labelledby="stale-h"
+      className="mb-3 rounded border-2 border-amber bg-white p-3 text-sm"
+      data-testid="stale-notice"
+    >
       <h2 id="stale-h" className="font-semibold text-ink">
         Not saved: this package changed since you opened it
       </h2>
       <p className="mt-1 text-steel-700">
         {s.savedBy ?? "Someone"} saved revision <span className="num">{s.currentRevision}</span> at{" "}
-        <time dateTime={s.savedAt}>{new Date(s.savedAt).toLocaleString()}</time> (you were on revision <span className="num">{s.baseRevision}</span>). The bench now shows their revision.
+        <time dateTime={s.savedAt}>{new Date(s.savedAt).toLocaleString()}</time> (you were on
+        revision <span className="num">{s.baseRevision}</span>). The bench now shows their revision.
       </p>
       {s.changes.length > 0 ? (
         <table className="mt-2 w-full text-left text-sm">
@@ -37,11 +53,19 @@ export function StaleNotice({ info, mine, onApply, onDiscard }: { info: StaleInf
       )}
       <div className="mt-2 flex flex-wrap gap-2">
         {mine > 0 ? (
-          <button type="button" onClick={onApply} className="rounded bg-teal px-3 py-1 font-semibold text-white hover:bg-teal-dark">
+          <button
+            type="button"
+            onClick={onApply}
+            className="rounded bg-teal px-3 py-1 font-semibold text-white hover:bg-teal-dark"
+          >
             Apply my change on top
           </button>
         ) : null}
-        <button type="button" onClick={onDiscard} className="rounded border border-steel-300 px-3 py-1 font-semibold text-graphite hover:bg-steel-100">
+        <button
+          type="button"
+          onClick={onDiscard}
+          className="rounded border border-steel-300 px-3 py-1 font-semibold text-graphite hover:bg-steel-100"
+        >
           Keep their version
         </button>
       </div>

@@ -11,5 +11,12 @@ const STYLE: Record<PackageStatus, string> = {
 };
 
 export function StatusBadge({ status }: { status: PackageStatus }) {
-  return <span className={`rounded px-1.5 py-0.5 text-xs font-semibold ${STYLE[status]}`} data-testid="status">{status.replace("_", " ")}</span>;
+  return (
+    <span
+      className={`rounded px-1.5 py-0.5 text-xs font-semibold ${STYLE[status]}`}
+      data-testid="status"
+    >
+      {status.replace("_", " ")}
+    </span>
+  );
 }

@@ -1,13 +1,19 @@
 // Form fields: a label, an optional hint, the control, and the list of its errors.
 // The control points at the hint and (when invalid) at the errors through
 // aria-describedby; Conform's get*Props supply the ids and aria-invalid.
-import { getInputProps, getSelectProps, getTextareaProps, type FieldMetadata } from "@conform-to/react";
+import {
+  getInputProps,
+  getSelectProps,
+  getTextareaProps,
+  type FieldMetadata,
+} from "@conform-to/react";
 
 // Conform's metadata for one field, whatever the value's type.
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 type AnyField = FieldMetadata<any, any, any>;
 
-const CONTROL = "mt-1 block w-full rounded border bg-white px-3 py-2 text-base text-ink shadow-sm focus:border-teal";
+const CONTROL =
+  "mt-1 block w-full rounded border bg-white px-3 py-2 text-base text-ink shadow-sm focus:border-teal";
 
 /** The classes of a text box, select or text area: red border while it has errors. */
 export function controlClass(errors: unknown, extra = ""): string {
@@ -50,7 +56,10 @@ export function Field({
 }) {
   return (
     <div>
-      <label htmlFor={id} className={labelHidden ? "sr-only" : "block text-sm font-semibold text-graphite"}>
+      <label
+        htmlFor={id}
+        className={labelHidden ? "sr-only" : "block text-sm font-semibold text-graphite"}
+      >
         {label}
       </label>
       {hint ? (
@@ -64,11 +73,23 @@ export function Field({
   );
 }
 
-type Common = { field: AnyField; label: React.ReactNode; hint?: React.ReactNode; labelHidden?: boolean };
+type Common = {
+  field: AnyField;
+  label: React.ReactNode;
+  hint?: React.ReactNode;
+  labelHidden?: boolean;
+};
 
 function shell({ field, label, hint, labelHidden }: Common, control: React.ReactNode) {
   return (
-    <Field id={field.id} label={label} hint={hint} errorId={field.errorId} errors={field.errors} labelHidden={labelHidden}>
+    <Field
+      id={field.id}
+      label={label}
+      hint={hint}
+      errorId={field.errorId}
+      errors={field.errors}
+      labelHidden={labelHidden}
+    >
       {control}
     </Field>
   );
@@ -81,8 +102,17 @@ export function TextField({
   autoComplete,
   autoFocus,
   ...common
-}: Common & { type?: "text" | "email" | "password" | "number"; mono?: boolean; step?: string; autoComplete?: string; autoFocus?: boolean }) {
-  const props = getInputProps(common.field, { type, ariaDescribedBy: hintId(common.field, common.hint) });
+}: Common & {
+  type?: "text" | "email" | "password" | "number";
+  mono?: boolean;
+  step?: string;
+  autoComplete?: string;
+  autoFocus?: boolean;
+}) {
+  const props = getInputProps(common.field, {
+    type,
+    ariaDescribedBy: hintId(common.field, common.hint),
+  });
   const number = type === "number";
   return shell(
     common,
@@ -93,7 +123,10 @@ export function TextField({
       inputMode={number ? "decimal" : undefined}
       autoComplete={autoComplete}
       autoFocus={autoFocus}
-      className={controlClass(common.field.errors, `${mono ? "font-mono" : ""} ${number ? "num" : ""}`)}
+      className={controlClass(
+        common.field.errors,
+        `${mono ? "font-mono" : ""} ${number ? "num" : ""}`,
+      )}
     />,
   );
 }
@@ -105,11 +138,22 @@ export function SelectField({
   placeholder,
   onChange,
   ...common
-}: Common & { options: readonly Option[]; placeholder?: string; onChange?: (value: string) => void }) {
-  const props = getSelectProps(common.field, { ariaDescribedBy: hintId(common.field, common.hint) });
+}: Common & {
+  options: readonly Option[];
+  placeholder?: string;
+  onChange?: (value: string) => void;
+}) {
+  const props = getSelectProps(common.field, {
+    ariaDescribedBy: hintId(common.field, common.hint),
+  });
   return shell(
     common,
-    <select {...props} key={props.key} onChange={onChange ? (e) => onChange(e.target.value) : undefined} className={controlClass(common.field.errors)}>
+    <select
+      {...props}
+      key={props.key}
+      onChange={onChange ? (e) => onChange(e.target.value) : undefined}
+      className={controlClass(common.field.errors)}
+    >
       {placeholder !== undefined ? <option value="">{placeholder}</option> : null}
       {options.map((o) => (
         <option key={o.value} value={o.value}>
@@ -120,15 +164,35 @@ export function SelectField({
   );
 }
 
-export function TextAreaField({ rows = 3, mono, ...common }: Common & { rows?: number; mono?: boolean }) {
-  const props = getTextareaProps(common.field, { ariaDescribedBy: hintId(common.field, common.hint) });
+export function TextAreaField({
+  rows = 3,
+  mono,
+  ...common
+}: Common & { rows?: number; mono?: boolean }) {
+  const props = getTextareaProps(common.field, {
+    ariaDescribedBy: hintId(common.field, common.hint),
+  });
   return shell(
     common,
-    <textarea {...props} key={props.key} rows={rows} spellCheck={mono ? false : undefined} className={controlClass(common.field.errors, mono ? "font-mono text-sm" : "")} />,
+    <textarea
+      {...props}
+      key={props.key}
+      rows={rows}
+      spellCheck={mono ? false : undefined}
+      className={controlClass(common.field.errors, mono ? "font-mono text-sm" : "")}
+    />,
   );
 }
 
-export function CheckboxField({ field, label, className = "" }: { field: AnyField; label: React.ReactNode; className?: string }) {
+export function CheckboxField({
+  field,
+  label,
+  className = "",
+}: {
+  field: AnyField;
+  label: React.ReactNode;
+  className?: string;
+}) {
   const props = getInputProps(field, { type: "checkbox" });
   return (
     <div className={`flex items-center gap-2 ${className}`}>

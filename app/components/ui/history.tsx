@@ -3,7 +3,11 @@
 
 export type HistoryChange = { label: string; before: string; after: string; mono?: boolean };
 
-const DATE_TIME = new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" });
+const DATE_TIME = new Intl.DateTimeFormat("en-US", {
+  dateStyle: "medium",
+  timeStyle: "short",
+  timeZone: "UTC",
+});
 
 export function formatUtc(iso: string): string {
   return `${DATE_TIME.format(new Date(iso))} UTC`;
@@ -33,13 +37,29 @@ export function HistoryList<T extends { version: number }>({
     <ol className="space-y-3">
       {versions.map((v, i) => {
         const prev = versions[i + 1];
-        return <HistoryEntry key={v.version} version={v.version} previousVersion={prev?.version ?? null} {...entry(v, prev)} />;
+        return (
+          <HistoryEntry
+            key={v.version}
+            version={v.version}
+            previousVersion={prev?.version ?? null}
+            {...entry(v, prev)}
+          />
+        );
       })}
     </ol>
   );
 }
 
-function HistoryEntry({ version, changedAt, changedBy, badge, note, previousVersion, changes, children }: EntryProps) {
+function HistoryEntry({
+  version,
+  changedAt,
+  changedBy,
+  badge,
+  note,
+  previousVersion,
+  changes,
+  children,
+}: EntryProps) {
   return (
     <li className="rounded border border-steel-200 bg-white p-3 text-sm">
       <p className="flex flex-wrap items-center gap-2">
@@ -61,8 +81,15 @@ function HistoryEntry({ version, changedAt, changedBy, badge, note, previousVers
             {changes.map((c) => (
               <li key={c.label}>
                 <span className="font-medium text-graphite">{c.label}: </span>
-                <del className={`break-all bg-steel-50 text-red-text ${c.mono ? "font-mono" : ""}`}>{c.before}</del> →{" "}
-                <ins className={`break-all text-green-text no-underline ${c.mono ? "font-mono" : ""}`}>{c.after}</ins>
+                <del className={`break-all bg-steel-50 text-red-text ${c.mono ? "font-mono" : ""}`}>
+                  {c.before}
+                </del>{" "}
+                →{" "}
+                <ins
+                  className={`break-all text-green-text no-underline ${c.mono ? "font-mono" : ""}`}
+                >
+                  {c.after}
+                </ins>
               </li>
             ))}
           </ul>
@@ -75,7 +102,11 @@ function HistoryEntry({ version, changedAt, changedBy, badge, note, previousVers
 }
 
 /** The fields whose shown value differs between two versions. */
-export function changesBetween<T>(prev: T | undefined, next: T, fields: readonly { label: string; show: (v: T) => string; mono?: boolean }[]): HistoryChange[] {
+export function changesBetween<T>(
+  prev: T | undefined,
+  next: T,
+  fields: readonly { label: string; show: (v: T) => string; mono?: boolean }[],
+): HistoryChange[] {
   if (!prev) return [];
   return fields.flatMap((f) => {
     const before = f.show(prev);

@@ -24,8 +24,14 @@ export function PageHeader({
             </Link>
           </p>
         ) : null}
-        {eyebrow ? <p className="text-sm font-semibold uppercase tracking-widest text-steel-700">{eyebrow}</p> : null}
-        <h1 className="mt-1 flex flex-wrap items-center gap-x-3 gap-y-1 break-words text-3xl font-semibold text-ink">{title}</h1>
+        {eyebrow ? (
+          <p className="text-sm font-semibold uppercase tracking-widest text-steel-700">
+            {eyebrow}
+          </p>
+        ) : null}
+        <h1 className="mt-1 flex flex-wrap items-center gap-x-3 gap-y-1 break-words text-3xl font-semibold text-ink">
+          {title}
+        </h1>
         {lead ? <div className="mt-1 text-steel-700">{lead}</div> : null}
       </div>
       {actions ? <div className="flex flex-wrap gap-2">{actions}</div> : null}
@@ -34,7 +40,17 @@ export function PageHeader({
 }
 
 /** A titled part of a page; the heading labels the region for screen readers. */
-export function Section({ id, title, children, as: Tag = "section" }: { id: string; title: string; children: React.ReactNode; as?: "section" | "aside" }) {
+export function Section({
+  id,
+  title,
+  children,
+  as: Tag = "section",
+}: {
+  id: string;
+  title: string;
+  children: React.ReactNode;
+  as?: "section" | "aside";
+}) {
   return (
     <Tag aria-labelledby={id}>
       <h2 id={id} className="mb-2 text-lg font-semibold text-ink">

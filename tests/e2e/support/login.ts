@@ -7,7 +7,11 @@ import { createCookie } from "react-router";
 import { createDb } from "../../../db/connect";
 import type { Role } from "../../../db/schema/core";
 import { DEMO_STAFF } from "../../../db/seed/core";
-import { hashSecret, SESSION_COOKIE_NAME, SESSION_TTL_SECONDS } from "../../../app/lib/session.server";
+import {
+  hashSecret,
+  SESSION_COOKIE_NAME,
+  SESSION_TTL_SECONDS,
+} from "../../../app/lib/auth/session.server";
 import { e2eDatabaseUrl } from "../../support/db-url";
 
 export const E2E_BASE = `http://127.0.0.1:${process.env.E2E_PORT ?? 3100}`;
@@ -21,7 +25,8 @@ export function demoUser(role: Role) {
 /** Makes a session for the user with this e-mail; returns the cookie value. */
 export async function sessionCookieValue(email: string): Promise<string> {
   const secret = process.env.SESSION_SECRET;
-  if (!secret) throw new Error("SESSION_SECRET is not set (source scripts/local-env.sh, as npm test does)");
+  if (!secret)
+    throw new Error("SESSION_SECRET is not set (source scripts/local-env.sh, as npm test does)");
   const db = createDb(e2eDatabaseUrl(), 1);
   try {
     const user = await db
@@ -32,9 +37,16 @@ export async function sessionCookieValue(email: string): Promise<string> {
     const id = randomBytes(32).toString("base64url");
     await db
       .insertInto("sessions")
-      .values({ id_hash: hashSecret(id), user_id: user.id, expires_at: new Date(Date.now() + SESSION_TTL_SECONDS * 1000) })
+      .values({
+        id_hash: hashSecret(id),
+        user_id: user.id,
+        expires_at: new Date(Date.now() + SESSION_TTL_SECONDS * 1000),
+      })
       .execute();
-    const header = await createCookie(SESSION_COOKIE_NAME, { secrets: [secret], path: "/" }).serialize(id);
+    const header = await createCookie(SESSION_COOKIE_NAME, {
+      secrets: [secret],
+      path: "/",
+    }).serialize(id);
     return header.slice(SESSION_COOKIE_NAME.length + 1).split(";")[0]!;
   } finally {
     await db.destroy();
@@ -42,10 +54,15 @@ export async function sessionCookieValue(email: string): Promise<string> {
 }
 
 /** Signs the demo user of `role` into the page's browser context. */
-export async function loginAs(target: Page | BrowserContext, role: Role): Promise<ReturnType<typeof demoUser>> {
+export async function loginAs(
+  target: Page | BrowserContext,
+  role: Role,
+): Promise<ReturnType<typeof demoUser>> {
   const context = "context" in target ? target.context() : target;
   const user = demoUser(role);
   const value = await sessionCookieValue(user.email);
-  await context.addCookies([{ name: SESSION_COOKIE_NAME, value, url: E2E_BASE, httpOnly: true, sameSite: "Lax" }]);
+  await context.addCookies([
+    { name: SESSION_COOKIE_NAME, value, url: E2E_BASE, httpOnly: true, sameSite: "Lax" },
+  ]);
   return user;
 }

@@ -1,0 +1,174 @@
+// Parses one posted bench action with Zod. Values typed in inches arrive with
+// unit=in and are stored in mm; every refusal names the field it belongs beside.
+import { z } from "zod";
+import { inToMm } from "../../../calc";
+import { SLOT_BY_KEY } from "../packages/slots";
+import { FIELD_SLOT, MEASURED_FIELDS, type BenchIntent, type MeasuredField } from "./spec";
+
+/** Sensible bounds for a typed value, in stored units, with the reason shown when outside. */
+const BOUNDS: Record<
+  MeasuredField | "deckClearanceMm" | "revLimitRpm" | "powerHp",
+  { min: number; max: number; why: string }
+> = {
+  boreMm: { min: 50, max: 140, why: "a V-twin bore is between 50 and 140 mm" },
+  strokeMm: { min: 50, max: 160, why: "a V-twin stroke is between 50 and 160 mm" },
+  pistonDomeCc: { min: -60, max: 60, why: "a dome or dish is between −60 and +60 cc" },
+  chamberCc: { min: 20, max: 200, why: "a chamber is between 20 and 200 cc" },
+  gasketBoreMm: { min: 50, max: 145, why: "a gasket bore is between 50 and 145 mm" },
+  gasketThicknessMm: { min: 0.1, max: 5, why: "a compressed gasket is between 0.1 and 5 mm thick" },
+  intakeClosesAbdcDeg: { min: 0, max: 179.9, why: "intake closing is 0 to under 180° after BDC" },
+  rodLengthMm: { min: 40, max: 300, why: "a rod is between 40 and 300 mm centre to centre" },
+  deckClearanceMm: {
+    min: -3,
+    max: 5,
+    why: "deck clearance is between −3 mm (above the deck) and 5 mm",
+  },
+  revLimitRpm: { min: 1000, max: 12000, why: "a rev limit is between 1,000 and 12,000 rpm" },
+  powerHp: { min: 1, max: 1000, why: "power is between 1 and 1,000 hp" },
+};
+
+const LENGTH_FIELDS = new Set([
+  "boreMm",
+  "strokeMm",
+  "gasketBoreMm",
+  "gasketThicknessMm",
+  "rodLengthMm",
+  "deckClearanceMm",
+]);
+
+const NOT_A_NUMBER = "Enter a number, e.g. 4.125 or 104.8";
+
+function numberField() {
+  return z
+    .string({ error: NOT_A_NUMBER })
+    .trim()
+    .min(1, "Enter a value, or use “Back to nominal”")
+    .transform((s) => s.replace(",", "."))
+    .pipe(z.string().regex(/^[-+−]?\d*\.?\d+$/, NOT_A_NUMBER))
+    .transform((s) => Number(s.replace("−", "-")));
+}
+
+function checkBounds(field: keyof typeof BOUNDS, mm: number): string | null {
+  const b = BOUNDS[field];
+  if (!Number.isFinite(mm)) return NOT_A_NUMBER;
+  if (mm < 0 && b.min >= 0) return "Cannot be negative";
+  if (mm < b.min || mm > b.max) return `Out of range: ${b.why}`;
+  return null;
+}
+
+const slotKey = z.string().refine((k) => k in SLOT_BY_KEY, "Unknown slot");
+const unit = z.enum(["mm", "in", "cc", "deg", "rpm", "hp"]).optional();
+
+const IntentSchema = z.discriminatedUnion("intent", [
+  z.object({
+    intent: z.literal("set-part"),
+    slot: slotKey,
+    partId: z.coerce.number().int().positive("Pick a part"),
+  }),
+  z.object({ intent: z.literal("clear-slot"), slot: slotKey }),
+  z.object({
+    intent: z.literal("set-measured"),
+    slot: slotKey,
+    field: z.enum(MEASURED_FIELDS as [MeasuredField, ...MeasuredField[]]),
+    value: z.string(),
+    unit,
+  }),
+  z.object({
+    intent: z.literal("revert-measured"),
+    slot: slotKey,
+    field: z.enum(MEASURED_FIELDS as [MeasuredField, ...MeasuredField[]]),
+  }),
+  z.object({
+    intent: z.literal("set-number"),
+    field: z.enum(["deckClearanceMm", "revLimitRpm", "powerHp"]),
+    value: z.string(),
+    unit,
+  }),
+  z.object({ intent: z.literal("set-basis"), value: z.enum(["target", "estimate", ""]) }),
+]);
+
+export type IntentErrors = Record<string, string[]>;
+
+export type ParsedIntent =
+  | { ok: true; action: BenchIntent; expectedRevision: number }
+  | { ok: false; errors: IntentErrors; expectedRevision: number | null };
+
+/** Error key for a field: `slot.field` for measured values, the field name for package numbers. */
+export function errorKey(action: { intent: string; slot?: string; field?: string }): string {
+  if (action.intent === "set-measured" || action.intent === "revert-measured")
+    return `${action.slot}.${action.field}`;
+  if (action.intent === "set-part" || action.intent === "clear-slot") return `${action.slot}`;
+  return action.field ?? "form";
+}
+
+export function parseBenchIntent(form: FormData): ParsedIntent {
+  const raw = Object.fromEntries(
+    [...form.entries()].map(([k, v]) => [k, typeof v === "string" ? v : ""]),
+  );
+  const expected = Number(raw.expectedRevision);
+  const expectedRevision = Number.isInteger(expected) && expected > 0 ? expected : null;
+  const parsed = IntentSchema.safeParse(raw);
+  if (!parsed.success) {
+    const errors: IntentErrors = {};
+    const key = errorKey(raw as { intent: string });
+    for (const issue of parsed.error.issues) (errors[key] ??= []).push(issue.message);
+    return { ok: false, errors, expectedRevision };
+  }
+  if (expectedRevision === null)
+    return {
+      ok: false,
+      errors: { form: ["The bench did not say which revision it was based on; reload the page."] },
+      expectedRevision,
+    };
+  const a = parsed.data;
+  if (a.intent === "set-measured" || a.intent === "set-number") {
+    const key = errorKey(a);
+    if (a.intent === "set-measured" && FIELD_SLOT[a.field] !== a.slot) {
+      return {
+        ok: false,
+        errors: { [key]: ["That value does not belong to this slot"] },
+        expectedRevision,
+      };
+    }
+    if (a.intent === "set-number" && a.value.trim() === "") {
+      return {
+        ok: true,
+        action: { intent: "set-number", field: a.field, value: null },
+        expectedRevision,
+      };
+    }
+    const num = numberField().safeParse(a.value);
+    if (!num.success)
+      return {
+        ok: false,
+        errors: { [key]: [num.error.issues[0]?.message ?? NOT_A_NUMBER] },
+        expectedRevision,
+      };
+    const stored = a.unit === "in" && LENGTH_FIELDS.has(a.field) ? inToMm(num.data) : num.data;
+    const problem = checkBounds(a.field, stored);
+    if (problem) return { ok: false, errors: { [key]: [problem] }, expectedRevision };
+    if (
+      a.intent === "set-number" &&
+      a.field === "revLimitRpm" &&
+      !Number.isInteger(Math.round(stored))
+    ) {
+      return { ok: false, errors: { [key]: [NOT_A_NUMBER] }, expectedRevision };
+    }
+    const value =
+      a.intent === "set-number" && a.field === "revLimitRpm" ? Math.round(stored) : stored;
+    return a.intent === "set-measured"
+      ? {
+          ok: true,
+          action: { intent: "set-measured", slot: a.slot, field: a.field, value },
+          expectedRevision,
+        }
+      : { ok: true, action: { intent: "set-number", field: a.field, value }, expectedRevision };
+  }
+  if (a.intent === "set-basis")
+    return {
+      ok: true,
+      action: { intent: "set-basis", value: a.value === "" ? null : a.value },
+      expectedRevision,
+    };
+  return { ok: true, action: a as BenchIntent, expectedRevision };
+}
