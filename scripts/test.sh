@@ -40,6 +40,11 @@ start_local_services || exit 1
 
 step() { echo ""; echo "== $1"; }
 
+# For focused runs while developing (CI sets none of these):
+#   TW_SKIP_STATIC=1           skip typecheck and lint
+#   VITEST_ARGS="files…"       run only these Vitest files ("skip" skips Vitest)
+#   PLAYWRIGHT_ARGS="files…"   run only these Playwright files ("skip" skips the build and e2e)
+if [ -n "${TW_SKIP_STATIC:-}" ]; then :; else
 step "typecheck"
 if ! npm run -s typecheck; then echo "typecheck failed"; status=1; fi
 
@@ -47,17 +52,22 @@ step "lint and format"
 if ! npx eslint . || ! npx prettier --check . >/dev/null; then
   npx prettier --check . 2>&1 | tail -20; echo "lint or format failed"; status=1
 fi
+fi
 
 step "vitest (unit and integration)"
-npx vitest run --reporter=default --reporter=json --outputFile.json="$RESULTS/vitest.json" || status=1
+if [ "${VITEST_ARGS:-}" != "skip" ]; then
+# shellcheck disable=SC2086
+npx vitest run ${VITEST_ARGS:-} --reporter=default --reporter=json --outputFile.json="$RESULTS/vitest.json" || status=1
+fi
 
-step "build"
-if ! npx react-router build >"$TW_DATA_DIR/log/build-test.log" 2>&1; then
+if [ "${PLAYWRIGHT_ARGS:-}" = "skip" ]; then :
+elif step "build"; ! npx react-router build >"$TW_DATA_DIR/log/build-test.log" 2>&1; then
   tail -40 "$TW_DATA_DIR/log/build-test.log"; echo "build failed"; status=1
 else
   step "playwright (e2e in Chromium)"
   DATABASE_URL="$E2E_DATABASE_URL" npx tsx db/reset.ts && DATABASE_URL="$E2E_DATABASE_URL" npx tsx db/seed.ts || status=1
-  npx playwright test || status=1
+  # shellcheck disable=SC2086
+  npx playwright test ${PLAYWRIGHT_ARGS:-} || status=1
 fi
 
 echo ""
