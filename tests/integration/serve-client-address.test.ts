@@ -2,7 +2,6 @@ import type { AddressInfo } from "node:net";
 import express from "express";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { CLIENT_ADDRESS_HEADER, clientAddress } from "~/lib/auth/throttle.server";
-// @ts-expect-error plain ESM module without type declarations
 import {
   CLIENT_ADDRESS_HEADER as SERVER_HEADER,
   clientAddressMiddleware,

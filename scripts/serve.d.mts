@@ -1,0 +1,5 @@
+// Types of what scripts/serve.mjs exports, for the tests that import it.
+import type { NextFunction, Request, Response } from "express";
+
+export const CLIENT_ADDRESS_HEADER: string;
+export function clientAddressMiddleware(req: Request, res: Response, next: NextFunction): void;
