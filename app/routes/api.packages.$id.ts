@@ -1,3 +1,4 @@
+import { requireIdParam } from "~/lib/http/ids";
 import type { Route } from "./+types/api.packages.$id";
 import { requireApiPermission } from "~/lib/auth/api.server";
 import { getDb } from "~/lib/db.server";
@@ -8,8 +9,8 @@ import { getBenchState, getPackageHeader } from "~/lib/packages/store.server";
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireApiPermission(request, "packages:read");
   const db = getDb();
-  const id = Number(params.id);
-  const header = Number.isInteger(id) && id > 0 ? await getPackageHeader(db, id) : null;
+  const id = requireIdParam(params);
+  const header = await getPackageHeader(db, id);
   const state = header
     ? await getBenchState(db, id, can(user.role, "prices:read"), { triggeredBy: true })
     : null;

@@ -1,3 +1,4 @@
+import { requireIdParam } from "~/lib/http/ids";
 import {
   DndContext,
   DragOverlay,
@@ -34,7 +35,7 @@ import { BenchSummary } from "~/components/bench/bench-summary";
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireRole(request, "owner", "builder", "service_writer");
   const db = getDb();
-  const id = Number(params.id);
+  const id = requireIdParam(params);
   const header = Number.isInteger(id) ? await getPackageHeader(db, id) : null;
   if (!header) throw data("No package with this number.", { status: 404 });
   const prices = can(user.role, "prices:read");
@@ -57,7 +58,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     return data({ ok: true as const, units });
   }
   const user = await requireRole(request, "owner", "builder");
-  return runBenchAction(getDb(), user, Number(params.id), form);
+  return runBenchAction(getDb(), user, requireIdParam(params), form);
 }
 
 export function shouldRevalidate({

@@ -1,3 +1,4 @@
+import { requireIdParam } from "~/lib/http/ids";
 import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/packages.$id";
@@ -21,7 +22,7 @@ import { RevisionCompare } from "~/components/packages/revision-compare";
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "packages:read");
   const db = getDb();
-  const id = Number(params.id);
+  const id = requireIdParam(params);
   const header = Number.isInteger(id) && id > 0 ? await getPackageHeader(db, id) : null;
   if (!header) throw data("No package with this number.", { status: 404 });
   const url = new URL(request.url);
@@ -58,7 +59,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const staff = await requireRole(request, "owner", "builder", "service_writer");
   const form = Object.fromEntries(await request.formData());
   const parsed = ActionSchema.safeParse(form);
-  const id = Number(params.id);
+  const id = requireIdParam(params);
   if (!parsed.success)
     return data(
       { ok: false as const, message: "That action was not understood." },

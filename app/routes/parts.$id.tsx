@@ -1,3 +1,4 @@
+import { parseId } from "~/lib/http/ids";
 import { data, Form } from "react-router";
 import type { Route } from "./+types/parts.$id";
 import { PartHistory } from "~/components/catalog/history";
@@ -13,7 +14,8 @@ import { attributeFieldsFor, unitText } from "~/lib/catalog/attributes";
 import { can } from "~/lib/auth/permissions";
 
 async function findPart(id: string | undefined) {
-  const part = await getPart(getDb(), Number(id));
+  const pid = parseId(id);
+  const part = pid === null ? null : await getPart(getDb(), pid);
   if (!part) throw data("No part with this number.", { status: 404 });
   return part;
 }

@@ -1,3 +1,4 @@
+import { parseId } from "~/lib/http/ids";
 import { data } from "react-router";
 import type { Route } from "./+types/rules.$id";
 import { RuleHistory } from "~/components/fit-rules/history";
@@ -16,7 +17,8 @@ import { handleRuleAction, ruleFormOptions } from "~/lib/fit-rules/actions.serve
 const iso = (d: unknown) => new Date(d as string).toISOString();
 
 async function findRule(id: string | undefined) {
-  const rule = await getRule(getDb(), Number(id));
+  const rid = parseId(id);
+  const rule = rid === null ? null : await getRule(getDb(), rid);
   if (!rule) throw data("No fit rule with this number.", { status: 404 });
   return rule;
 }
