@@ -1,4 +1,4 @@
-import { requireIdParam } from "~/lib/http/ids";
+import { parseId } from "~/lib/http/ids";
 import type { Route } from "./+types/api.packages.$id";
 import { requireApiPermission } from "~/lib/auth/api.server";
 import { getDb } from "~/lib/db.server";
@@ -9,11 +9,13 @@ import { getBenchState, getPackageHeader } from "~/lib/packages/store.server";
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireApiPermission(request, "packages:read");
   const db = getDb();
-  const id = requireIdParam(params);
-  const header = await getPackageHeader(db, id);
-  const state = header
-    ? await getBenchState(db, id, can(user.role, "prices:read"), { triggeredBy: true })
-    : null;
+  // a JSON route answers JSON, also for a number that cannot be a package's
+  const id = parseId(params.id);
+  const header = id === null ? undefined : await getPackageHeader(db, id);
+  const state =
+    header && id !== null
+      ? await getBenchState(db, id, can(user.role, "prices:read"), { triggeredBy: true })
+      : null;
   if (!header || !state)
     return Response.json({ error: "No package with this number." }, { status: 404 });
   const { computation, findings, spec, parts, revision, savedAt, savedBy } = state;
