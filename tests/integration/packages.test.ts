@@ -524,7 +524,9 @@ describe("status", () => {
       { id: String(id) },
     );
     expect(locked.status).toBe(400);
-    expect(locked.body.errors.form.join(" ")).toMatch(/locked/);
+    expect(locked.body.errors).toEqual({
+      form: ["The package is approved: its spec is locked. Move it back to draft to change it."],
+    });
   });
 });
 
