@@ -303,7 +303,9 @@ describe("the mail queue", () => {
       .selectAll()
       .executeTakeFirstOrThrow();
     expect(sent.status).toBe("sent");
-  });
+    // its own bounded waits (a failed attempt ≤ 15 s, the retry ≤ 20 s, the job's completion
+    // ≤ 20 s) are longer than the default test timeout; the retry backoff is real time
+  }, 60_000);
 
   it("queues one message per idempotency key", async () => {
     const { queueMail, deliverMessage } = await import("~/lib/mail/mail.server");
