@@ -6,7 +6,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { computeSpec } from "../../calc";
 import { getDb } from "~/lib/db.server";
 import { ensureBuiltInCategories } from "~/lib/catalog/parts.server";
-import { createRule } from "~/lib/fit-rules/rules.server";
+import { createRule, updateRule } from "~/lib/fit-rules/rules.server";
 import { createPackage } from "~/lib/packages/store.server";
 import { action as benchAction, loader as benchLoader } from "~/routes/packages.$id.bench";
 import { createTestUser, requestAs, type TestUser } from "../support/auth";
@@ -657,5 +657,71 @@ describe("bench input at the edges", () => {
       { key: "powerHp", label: "Power", before: "—", after: "150 hp" },
     ]);
     expect((await current(id)).current_revision).toBe(base + 3);
+  });
+});
+
+describe("the bench's rule cache", () => {
+  it("a rule added, edited or switched off applies to the very next save", async () => {
+    const id = await newPackage();
+    let rev = await fill(id);
+    const save = async (hp: string) => {
+      const r = await act(builder, id, {
+        intent: "set-number",
+        field: "powerHp",
+        value: hp,
+        unit: "hp",
+        expectedRevision: String(rev),
+      });
+      expect(r.status).toBe(200);
+      rev = r.body.state.revision;
+      return (r.body.state.findings as { ruleId: number; ruleVersion: number }[]).filter(
+        (f) => f.ruleId === ruleId,
+      );
+    };
+    let ruleId = 0;
+    expect(await save("100")).toEqual([]); // the bench's cache is warm
+    const fields = {
+      name: `Cache check ${tag}`,
+      kind: "caution" as const,
+      condition: `power_hp > 101 and has("stock-axle-${tag}") == false`,
+      message: "Cache check.",
+      upgrade_category: null,
+      suggested_part_id: null,
+      active: true,
+    };
+    const made = await createRule(db, fields, null);
+    if (!made.ok) throw new Error("rule did not save");
+    ruleId = made.rule.id;
+    expect(await save("102")).toMatchObject([{ ruleId, ruleVersion: 1 }]);
+    const edited = await updateRule(
+      db,
+      ruleId,
+      { ...fields, condition: "power_hp > 500" },
+      1,
+      null,
+      "raised",
+    );
+    expect(edited.ok).toBe(true);
+    expect(await save("103")).toEqual([]);
+    const back = await updateRule(
+      db,
+      ruleId,
+      { ...fields, condition: "power_hp > 101" },
+      2,
+      null,
+      "lowered",
+    );
+    expect(back.ok).toBe(true);
+    expect(await save("104")).toMatchObject([{ ruleId, ruleVersion: 3 }]);
+    const off = await updateRule(
+      db,
+      ruleId,
+      { ...fields, condition: "power_hp > 101", active: false },
+      3,
+      null,
+      "off",
+    );
+    expect(off.ok).toBe(true);
+    expect(await save("105")).toEqual([]);
   });
 });
