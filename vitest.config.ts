@@ -28,7 +28,11 @@ export default defineConfig({
         extends: true,
         test: {
           name: "db",
-          include: ["db/**/*.test.ts", "tests/integration/**/*.test.ts"],
+          include: [
+            "db/**/*.test.ts",
+            "tests/integration/**/*.test.ts",
+            "tests/faults/**/*.test.ts",
+          ],
           globalSetup: ["tests/support/global-setup.ts"],
         },
       },
