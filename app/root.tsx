@@ -64,6 +64,12 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
         typeof error.data === "string" && error.data
           ? error.data
           : "Your account's role does not include this page.";
+    } else if (error.status === 503) {
+      title = "The database is not reachable";
+      detail =
+        typeof error.data === "string" && error.data
+          ? error.data
+          : "The shop's database is not answering. Try again in a moment.";
     } else {
       title = error.statusText || title;
       if (typeof error.data === "string" && error.data) detail = error.data;

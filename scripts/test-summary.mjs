@@ -6,8 +6,8 @@ const dir = process.argv[2] ?? ".data/test-results";
 let passed = 0;
 let failed = 0;
 
-const vitestFile = path.join(dir, "vitest.json");
-if (existsSync(vitestFile)) {
+for (const vitestFile of ["vitest.json", "vitest-faults.json"].map((f) => path.join(dir, f))) {
+  if (!existsSync(vitestFile)) continue;
   const v = JSON.parse(readFileSync(vitestFile, "utf8"));
   passed += v.numPassedTests ?? 0;
   failed += v.numFailedTests ?? 0;

@@ -60,14 +60,24 @@ if [ "${VITEST_ARGS:-}" != "skip" ]; then
 npx vitest run ${VITEST_ARGS:-} --reporter=default --reporter=json --outputFile.json="$RESULTS/vitest.json" || status=1
 fi
 
-if [ "${PLAYWRIGHT_ARGS:-}" = "skip" ]; then :
+#   FAULTS_ARGS="files…"       run only these fault tests ("skip" skips them; with
+#                              PLAYWRIGHT_ARGS=skip they run only when named)
+if [ "${PLAYWRIGHT_ARGS:-}" = "skip" ] && [ "${FAULTS_ARGS:-skip}" = "skip" ]; then :
 elif step "build"; ! npx react-router build >"$TW_DATA_DIR/log/build-test.log" 2>&1; then
   tail -40 "$TW_DATA_DIR/log/build-test.log"; echo "build failed"; status=1
 else
+  if [ "${PLAYWRIGHT_ARGS:-}" != "skip" ]; then
   step "playwright (e2e in Chromium)"
   DATABASE_URL="$E2E_DATABASE_URL" npx tsx db/reset.ts && DATABASE_URL="$E2E_DATABASE_URL" npx tsx db/seed.ts || status=1
   # shellcheck disable=SC2086
   npx playwright test ${PLAYWRIGHT_ARGS:-} || status=1
+  fi
+  if [ "${FAULTS_ARGS:-}" != "skip" ]; then
+  # the built server and a PostgreSQL cluster of their own (TW_FAULT_PG_PORT, else a free port)
+  step "faults (database restart, killed server, headers, fresh clone)"
+  # shellcheck disable=SC2086
+  npx vitest run --config vitest.faults.config.ts ${FAULTS_ARGS:-} --reporter=default --reporter=json --outputFile.json="$RESULTS/vitest-faults.json" || status=1
+  fi
 fi
 
 echo ""
