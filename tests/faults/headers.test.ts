@@ -2,6 +2,7 @@
 // .data answers, resource routes, static files and the not-found page. The page's
 // Content-Security-Policy carries a fresh nonce per request, every inline script of the
 // page carries that nonce, and scripts are never allowed inline without it.
+import { request as httpRequest } from "node:http";
 import type { AddressInfo } from "node:net";
 import express from "express";
 import type { Kysely } from "kysely";
@@ -174,5 +175,36 @@ describe("security headers", () => {
     expect((await answer("http://127.0.0.1:3000")).headers.get("Strict-Transport-Security")).toBe(
       null,
     );
+  });
+});
+
+describe("the same-origin check behind the real server", () => {
+  it("refuses a post whose Host and Origin both name another site", async () => {
+    const send = (host: string, origin: string) =>
+      new Promise<number>((resolve, reject) => {
+        const u = new URL(`${app.url}/login`);
+        const req = httpRequest(
+          {
+            host: u.hostname,
+            port: u.port,
+            path: "/login",
+            method: "POST",
+            headers: {
+              Host: host,
+              Origin: origin,
+              "Content-Type": "application/x-www-form-urlencoded",
+            },
+          },
+          (res) => {
+            res.resume();
+            resolve(res.statusCode ?? 0);
+          },
+        );
+        req.once("error", reject);
+        req.end("email=someone%40staff.test&password=x");
+      });
+    expect(await send("evil.test", "http://evil.test")).toBe(403);
+    // the same post from our own page is not refused for its origin
+    expect(await send(new URL(app.url).host, app.url)).not.toBe(403);
   });
 });
