@@ -13,6 +13,11 @@ import { getUser } from "./lib/auth/auth.server";
 import { env } from "./lib/env.server";
 import { ensureJobWorkers } from "./lib/mail/workers.server";
 import "./app.css";
+import { z } from "zod";
+
+// In the browser, Zod must not probe for eval (`Function("")`): the page's
+// Content-Security-Policy forbids it, and each probe would be reported as a violation.
+if (typeof document !== "undefined") z.config({ jitless: true });
 
 export async function loader({ request }: Route.LoaderArgs) {
   // The first request a server answers starts its share of the job queue.
@@ -64,6 +69,12 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
         typeof error.data === "string" && error.data
           ? error.data
           : "Your account's role does not include this page.";
+    } else if (error.status === 503) {
+      title = "The database is not reachable";
+      detail =
+        typeof error.data === "string" && error.data
+          ? error.data
+          : "The shop's database is not answering. Try again in a moment.";
     } else {
       title = error.statusText || title;
       if (typeof error.data === "string" && error.data) detail = error.data;

@@ -6,6 +6,8 @@
 #   scripts/pg.sh status  exit 0 when running
 #   scripts/pg.sh url [db]  print the connection URL
 # With DATABASE_URL set in the environment, nothing is started or stopped.
+# As root with a data folder the postgres user cannot enter, the cluster, its socket and
+# its log live in TW_PG_FALLBACK_DIR (default /var/tmp/torquewright-pg) instead.
 set -euo pipefail
 
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
@@ -15,19 +17,33 @@ PG_BIN="${TW_PG_BIN:-/usr/lib/postgresql/15/bin}"
 DB_NAME="${TW_DB_NAME:-torquewright}"
 
 is_root() { [ "$(id -u)" = "0" ]; }
-as_pg() { if is_root; then runuser -u postgres -- "$@"; else "$@"; fi; }
+# As root, the server's tools run as the postgres user, from / (they refuse a current
+# folder they cannot enter, such as a checkout in a private home).
+as_pg() { if is_root; then (cd / && runuser -u postgres -- "$@"); else "$@"; fi; }
+
+FALLBACK_ROOT="${TW_PG_FALLBACK_DIR:-/var/tmp/torquewright-pg}"
 
 # The cluster lives in the data folder unless the postgres OS user cannot reach it
-# (a checkout under a private home); then in a folder named after the checkout.
+# (a checkout under a private home, a folder made by mktemp -d); then in a folder it can
+# reach, named after the data folder. Everything the server reads or writes (cluster,
+# socket, log) goes where the cluster goes.
 cluster_dir() {
   local preferred="$DATA_ROOT/pg"
   if is_root && ! runuser -u postgres -- test -x "$DATA_ROOT" 2>/dev/null; then
-    local hash
-    hash=$(printf '%s' "$ROOT" | sha256sum | cut -c1-12)
-    echo "/var/tmp/torquewright-pg/$hash"
+    local hash key="$DATA_ROOT"
+    # the default data folder keeps the name it always had (the checkout's)
+    [ "$DATA_ROOT" = "$ROOT/.data" ] && key="$ROOT"
+    hash=$(printf '%s' "$key" | sha256sum | cut -c1-12)
+    echo "$FALLBACK_ROOT/$hash"
   else
     echo "$preferred"
   fi
+}
+
+# The server's log: in the data folder beside the cluster, or beside the fallback cluster.
+log_file() {
+  local dir="$1"
+  if [ "$dir" = "$DATA_ROOT/pg" ]; then echo "$DATA_ROOT/pg.log"; else echo "$dir.log"; fi
 }
 
 ensure_installed() {
@@ -61,7 +77,15 @@ start() {
   local dir; dir=$(cluster_dir)
   local sock="$dir/../run-$(basename "$dir")"
   mkdir -p "$dir" "$sock"
-  if is_root; then chown postgres:postgres "$dir" "$sock"; chmod 700 "$dir"; fi
+  # the fallback folder itself must let the postgres user through, whatever the umask
+  if [ "$dir" != "$DATA_ROOT/pg" ]; then chmod 755 "$(dirname "$dir")"; fi
+  if is_root; then
+    chown postgres:postgres "$dir" "$sock"; chmod 700 "$dir"
+    if ! runuser -u postgres -- test -x "$dir"; then
+      echo "pg: the postgres user cannot reach $dir; set TW_PG_FALLBACK_DIR to a folder it can enter" >&2
+      exit 1
+    fi
+  fi
   if [ ! -f "$dir/PG_VERSION" ]; then
     echo "pg: creating a cluster in $dir" >&2
     as_pg "$PG_BIN/initdb" -D "$dir" -U postgres --auth=trust -E UTF8 --no-locale >/dev/null
@@ -74,7 +98,7 @@ start() {
       echo "pg: removing a stale pid file" >&2
       rm -f "$dir/postmaster.pid"
     fi
-    local log="$DATA_ROOT/pg.log"
+    local log; log=$(log_file "$dir")
     touch "$log"; if is_root; then chown postgres:postgres "$log"; fi
     as_pg "$PG_BIN/pg_ctl" -D "$dir" -l "$log" -w -t 60 \
       -o "-h 127.0.0.1 -p $PG_PORT -k $sock ${TW_PG_OPTIONS:-}" start >/dev/null

@@ -16,8 +16,8 @@ let skipped = 0;
 /** skipped tests with no recorded reason: "file › title" */
 const unexplained = [];
 
-const vitestFile = path.join(dir, "vitest.json");
-if (existsSync(vitestFile)) {
+for (const vitestFile of ["vitest.json", "vitest-faults.json"].map((f) => path.join(dir, f))) {
+  if (!existsSync(vitestFile)) continue;
   const v = JSON.parse(readFileSync(vitestFile, "utf8"));
   passed += v.numPassedTests ?? 0;
   failed += v.numFailedTests ?? 0;

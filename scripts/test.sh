@@ -93,14 +93,27 @@ if [ -n "$bg_pid" ]; then
 fi
 [ "$bg_rc" != 0 ] && status=1
 
-if [ "${PLAYWRIGHT_ARGS:-}" = "skip" ]; then :
-elif [ "$bg_rc" = 2 ]; then echo "playwright: not run, the build failed"
+#   FAULTS_ARGS="files…"       run only these fault tests ("skip" skips them; with
+#                              PLAYWRIGHT_ARGS=skip they run only when named)
+if [ "${PLAYWRIGHT_ARGS:-}" = "skip" ] && [ "${FAULTS_ARGS:-skip}" = "skip" ]; then :
+elif [ "$bg_rc" = 2 ]; then echo "playwright and fault tests: not run, the build failed"
+elif [ "${PLAYWRIGHT_ARGS:-}" = "skip" ] && step "build" && ! npx react-router build >"$LOG/build-test.log" 2>&1; then
+  tail -40 "$LOG/build-test.log"; echo "build failed"; status=1
 else
+  if [ "${PLAYWRIGHT_ARGS:-}" != "skip" ]; then
   step "playwright (e2e in Chromium)"
   DATABASE_URL="$E2E_DATABASE_URL" npx tsx db/reset.ts && DATABASE_URL="$E2E_DATABASE_URL" npx tsx db/seed.ts || status=1
   # shellcheck disable=SC2086
   npx playwright test ${PLAYWRIGHT_ARGS:-} || status=1
   echo "(playwright done at $((SECONDS - started_at)) s)"
+  fi
+  if [ "${FAULTS_ARGS:-}" != "skip" ]; then
+  # the built server and a PostgreSQL cluster of their own (TW_FAULT_PG_PORT, else a free port)
+  step "faults (database restart, killed server, headers, fresh clone)"
+  # shellcheck disable=SC2086
+  npx vitest run --config vitest.faults.config.ts ${FAULTS_ARGS:-} --reporter=default --reporter=json --outputFile.json="$RESULTS/vitest-faults.json" || status=1
+  echo "(faults done at $((SECONDS - started_at)) s)"
+  fi
 fi
 
 echo ""

@@ -15,10 +15,10 @@ import { useState } from "react";
 import { data, Link, useFetcher, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/packages.$id.bench";
 import { requireRole } from "~/lib/auth/auth.server";
-import { getDb } from "~/lib/db.server";
+import { DB_UNREACHABLE_SAVE_MESSAGE, getDb, isDatabaseUnreachable } from "~/lib/db.server";
 import { can } from "~/lib/auth/permissions";
 import { EDITABLE_STATUSES, resolveFields, toCalcInput, type BenchPart } from "~/lib/bench/spec";
-import { runBenchAction } from "~/lib/bench/action.server";
+import { runBenchAction, type BenchActionResult } from "~/lib/bench/action.server";
 import { useBenchQueue } from "~/lib/bench/queue";
 import { getBenchState, getPackageHeader, slotOptions } from "~/lib/packages/store.server";
 import { getUnits, setUnits } from "~/lib/units-pref.server";
@@ -51,14 +51,23 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const form = await request.formData();
-  if (form.get("intent") === "set-units") {
-    const user = await requireRole(request, "owner", "builder", "service_writer");
-    const units = form.get("units") === "metric" ? "metric" : "inch";
-    await setUnits(getDb(), user.id, units);
-    return data({ ok: true as const, units });
+  try {
+    if (form.get("intent") === "set-units") {
+      const user = await requireRole(request, "owner", "builder", "service_writer");
+      const units = form.get("units") === "metric" ? "metric" : "inch";
+      await setUnits(getDb(), user.id, units);
+      return data({ ok: true as const, units });
+    }
+    const user = await requireRole(request, "owner", "builder");
+    return await runBenchAction(getDb(), user, requireIdParam(params), form);
+  } catch (e) {
+    // the bench keeps the edit and offers to send it again (see useBenchQueue)
+    if (!isDatabaseUnreachable(e)) throw e;
+    return data<BenchActionResult>(
+      { ok: false, errors: { form: [DB_UNREACHABLE_SAVE_MESSAGE] }, retry: true },
+      { status: 503, headers: { "Retry-After": "5" } },
+    );
   }
-  const user = await requireRole(request, "owner", "builder");
-  return runBenchAction(getDb(), user, requireIdParam(params), form);
 }
 
 export function shouldRevalidate({
@@ -238,7 +247,9 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
           <span className="num" data-testid="revision">
             revision {bench.base.revision}
           </span>
-          {bench.pending ? (
+          {bench.paused ? (
+            <span className="ml-2 text-red-text">not saved</span>
+          ) : bench.pending ? (
             <span className="ml-2 text-teal-text">saving…</span>
           ) : (
             <span className="ml-2">saved by {bench.base.savedBy ?? "—"}</span>
@@ -261,6 +272,15 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
           className="mb-3 rounded border border-red bg-white p-2 text-sm text-red-text"
         >
           {bench.errors.form.join(" ")}
+          {bench.paused ? (
+            <button
+              type="button"
+              onClick={bench.retry}
+              className="ml-2 rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark"
+            >
+              Try again
+            </button>
+          ) : null}
         </p>
       ) : null}
       {bench.conflict ? (

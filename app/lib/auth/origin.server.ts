@@ -1,5 +1,5 @@
 // Posts are accepted only from our own pages: the Origin header (sent by every current
-// browser on a POST) must be the app's own origin.
+// browser on a POST) must be the app's own origin, the one in APP_URL.
 import { data } from "react-router";
 import { env } from "../env.server";
 
@@ -7,22 +7,19 @@ const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
 
 export function isSameOrigin(request: Request): boolean {
   if (SAFE_METHODS.has(request.method.toUpperCase())) return true;
+  // Only APP_URL says what our origin is: the request's own URL is built from its Host
+  // header, which the sender chooses.
+  const ours = new URL(env().APP_URL).origin;
   const origin = request.headers.get("Origin");
-  if (!origin) {
-    // Without Origin, fall back to Referer; a post with neither is refused.
-    const referer = request.headers.get("Referer");
-    if (!referer) return false;
-    try {
-      return allowedOrigins(request).has(new URL(referer).origin);
-    } catch {
-      return false;
-    }
+  if (origin) return origin === ours;
+  // Without Origin, fall back to Referer; a post with neither is refused.
+  const referer = request.headers.get("Referer");
+  if (!referer) return false;
+  try {
+    return new URL(referer).origin === ours;
+  } catch {
+    return false;
   }
-  return allowedOrigins(request).has(origin);
-}
-
-function allowedOrigins(request: Request): Set<string> {
-  return new Set([new URL(env().APP_URL).origin, new URL(request.url).origin]);
 }
 
 export function requireSameOrigin(request: Request): void {

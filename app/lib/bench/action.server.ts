@@ -51,7 +51,8 @@ export type BenchActionResult =
   // one JSON string (SavedState): React Router's stream encoding visits every value of an
   // answer, and a saved bench state has hundreds; JSON.stringify is native and one string is one value
   | { ok: true; saved: string }
-  | { ok: false; errors: IntentErrors }
+  // retry: nothing was read or saved (the database was away); the bench keeps the edit
+  | { ok: false; errors: IntentErrors; retry?: true }
   | { ok: false; stale: StaleSave; current: BenchState };
 
 const CALC_FIELD_LABEL: Record<string, string> = {

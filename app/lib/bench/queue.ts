@@ -53,6 +53,7 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
   const [queue, setQueue] = useState<QueuedAction[]>([]);
   const [errors, setErrors] = useState<Record<string, string[]>>({});
   const [conflict, setConflict] = useState<{ info: StaleInfo; mine: QueuedAction[] } | null>(null);
+  const [paused, setPaused] = useState(false);
   const [parts, setParts] = useState<Map<number, BenchPart>>(
     () => new Map([...partsFromLoader, ...initial.parts].map((p) => [p.id, p])),
   );
@@ -105,20 +106,25 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
         setQueue([]);
         setBase(answer.current);
         remember(answer.current.parts);
+      } else if (answer.retry) {
+        // nothing was saved: the edits stay queued (and on screen) until the user retries
+        setErrors((e) => ({ ...e, ...answer.errors }));
+        setPaused(true);
       } else {
         setErrors((e) => ({ ...e, ...answer.errors }));
         setQueue((q) => q.slice(1));
       }
       return;
     }
-    if (inFlight.current || fetcher.state !== "idle" || queue.length === 0 || conflict) return;
+    if (inFlight.current || fetcher.state !== "idle" || queue.length === 0 || conflict || paused)
+      return;
     const next = queue[0]!;
     inFlight.current = next;
     sawBusy.current = false;
     dataWhenSent.current = fetcher.data;
     fetcher.submit({ ...next.fields, expectedRevision: String(base.revision) }, { method: "post" });
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [fetcher.state, fetcher.data, queue, conflict, base.revision]);
+  }, [fetcher.state, fetcher.data, queue, conflict, paused, base.revision]);
 
   const spec = useMemo(
     () => queue.reduce((s, a) => (a.intent ? applyIntent(s, a.intent) : s), base.spec),
@@ -147,6 +153,17 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
         return rest;
       });
       setQueue((q) => [...q, action]);
+      setPaused(false);
+    },
+    /** True while edits wait for the database to be back (see retry). */
+    paused,
+    /** Sends the edits that were not saved again. */
+    retry() {
+      setErrors((e) => {
+        const { form: _form, ...rest } = e;
+        return rest;
+      });
+      setPaused(false);
     },
     /** Sends the refused actions again, now based on the newer revision. */
     applyMineOnTop() {

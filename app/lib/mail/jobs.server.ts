@@ -16,8 +16,15 @@ export function getBoss(): Promise<PgBoss> {
   if (!state.boss) {
     state.boss = (async () => {
       const boss = new PgBoss({ connectionString: env().DATABASE_URL, max: 3, schema: "pgboss" });
-      // Connection hiccups are reported and retried by pg-boss itself.
-      boss.on("error", (e) => console.warn(`jobs: ${e instanceof Error ? e.message : String(e)}`));
+      // A database restart or a network break is reported here (every worker's poll
+      // fails until it is back); pg-boss keeps polling and its pool opens new
+      // connections, so the workers resume by themselves. One line per outage, not per poll.
+      let lastWarned = 0;
+      boss.on("error", (e) => {
+        if (Date.now() - lastWarned < 30_000) return;
+        lastWarned = Date.now();
+        console.warn(`jobs: ${e instanceof Error ? e.message : String(e)} (retrying)`);
+      });
       await boss.start();
       const retryDelay = env().MAIL_RETRY_DELAY_SECONDS;
       await boss.createQueue(QUEUES.mail, {
