@@ -1,3 +1,5 @@
+import { readQuery } from "~/lib/http/text";
+import { PUBLIC_FORM, readForm } from "~/lib/http/body";
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { useState } from "react";
@@ -24,14 +26,14 @@ export const LoginSchema = z.object({
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request);
-  if (user) throw redirect(safeRedirect(new URL(request.url).searchParams.get("redirectTo")));
+  if (user) throw redirect(safeRedirect(readQuery(request).get("redirectTo")));
   return honeypotStamp();
 }
 
 export async function action({ request }: Route.ActionArgs) {
   requireSameOrigin(request);
   // The form strategy reads the body itself, so parse a copy.
-  const formData = await request.clone().formData();
+  const formData = await readForm(request.clone(), PUBLIC_FORM);
   const submission = parseWithZod(formData, { schema: LoginSchema });
   if (submission.status !== "success") {
     return data({ result: submission.reply({ hideFields: ["password"] }) }, { status: 400 });

@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { requireIdParam } from "~/lib/http/ids";
 import {
   DndContext,
@@ -50,7 +51,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const form = await request.formData();
+  const form = await readForm(request);
   if (form.get("intent") === "set-units") {
     const user = await requireRole(request, "owner", "builder", "service_writer");
     const units = form.get("units") === "metric" ? "metric" : "inch";

@@ -1,3 +1,4 @@
+import { PUBLIC_FORM, readForm } from "~/lib/http/body";
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
@@ -30,7 +31,7 @@ export async function loader({ params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   requireSameOrigin(request);
-  const formData = await request.formData();
+  const formData = await readForm(request, PUBLIC_FORM);
   const submission = parseWithZod(formData, { schema: NewPasswordSchema });
   if (submission.status !== "success") {
     return data(

@@ -1,3 +1,4 @@
+import { PUBLIC_FORM, readForm } from "~/lib/http/body";
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, useNavigation } from "react-router";
@@ -26,7 +27,7 @@ export async function loader(_: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   requireSameOrigin(request);
-  const formData = await request.formData();
+  const formData = await readForm(request, PUBLIC_FORM);
   const submission = parseWithZod(formData, { schema: ResetRequestSchema });
   if (submission.status !== "success")
     return data({ result: submission.reply(), sent: false }, { status: 400 });
