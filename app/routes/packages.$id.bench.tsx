@@ -51,15 +51,18 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
+  const id = requireIdParam(params);
   const form = await readForm(request);
   if (form.get("intent") === "set-units") {
     const user = await requireRole(request, "owner", "builder", "service_writer");
+    if (!(await getPackageHeader(getDb(), id)))
+      throw data("No package with this number.", { status: 404 });
     const units = form.get("units") === "metric" ? "metric" : "inch";
     await setUnits(getDb(), user.id, units);
     return data({ ok: true as const, units });
   }
   const user = await requireRole(request, "owner", "builder");
-  return runBenchAction(getDb(), user, requireIdParam(params), form);
+  return runBenchAction(getDb(), user, id, form);
 }
 
 export function shouldRevalidate({

@@ -52,7 +52,11 @@ export function queryInt(
   if (n === null || n > max) {
     const message =
       opts.message ?? `Must be a whole number from 1 to ${max.toLocaleString("en-US")}`;
-    if (opts.json) throw Response.json({ error: message, field: name }, { status: 400 });
+    if (opts.json)
+      throw Response.json(
+        { error: `${message} (the “${name}” value in the address)`, field: name },
+        { status: 400 },
+      );
     badQuery(name, message);
   }
   return n;
@@ -62,7 +66,6 @@ export function queryInt(
 export function zId(message: string) {
   return z
     .string({ error: message })
-    .trim()
     .refine((s) => parseId(s) !== null, message)
     .transform((s) => parseId(s) as number);
 }
