@@ -60,7 +60,8 @@ export async function readBytes(request: Request, limit: number, tooLarge?: stri
     if (step.done) break;
     total += step.value.byteLength;
     if (total > limit) {
-      await reader.cancel().catch(() => {});
+      // not awaited: a copy's cancel (the sign-in form reads a copy) waits for the original
+      reader.cancel().catch(() => {});
       refuse(message, 413);
     }
     chunks.push(step.value);
