@@ -155,6 +155,7 @@ export type Fixtures = {
   partId: number;
   ruleId: number;
   bikeId: number;
+  customer: { id: number; email: string; phone: string };
   /** a real id for each route param, by route file */
   realParams: (file: string) => Record<string, string>;
   tag: string;
@@ -186,8 +187,13 @@ export async function makeFixtures(): Promise<Fixtures> {
     .executeTakeFirstOrThrow();
   const customer = await db
     .insertInto("customers")
-    .values({ name: `Hostile ${tag}`, notes: "" })
-    .returning("id")
+    .values({
+      name: `Hostile ${tag}`,
+      notes: "",
+      email: `hostile-${tag}@customer.test`,
+      phone: `555-01${parseInt(tag, 16) % 100}-${tag}`,
+    })
+    .returning(["id", "email", "phone"])
     .executeTakeFirstOrThrow();
   const bike = await db
     .insertInto("bikes")
@@ -227,6 +233,7 @@ export async function makeFixtures(): Promise<Fixtures> {
     partId: part.id,
     ruleId: rule.rule.id,
     bikeId: bike.id,
+    customer: { id: customer.id, email: customer.email!, phone: customer.phone! },
     tag,
     realParams: (file) => {
       const id = ids[file];
