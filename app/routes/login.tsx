@@ -59,6 +59,14 @@ export async function action({ request }: Route.ActionArgs) {
   }
 }
 
+/** A refused sign-in's Retry-After reaches the browser (action headers are not passed on by themselves). */
+export function headers({ actionHeaders }: Route.HeadersArgs) {
+  const out = new Headers();
+  const retry = actionHeaders.get("Retry-After");
+  if (retry) out.set("Retry-After", retry);
+  return out;
+}
+
 export default function Login({ loaderData, actionData }: Route.ComponentProps) {
   const [params] = useSearchParams();
   const navigation = useNavigation();
