@@ -13,8 +13,7 @@ import { TextField } from "~/components/ui/field";
 import { authenticator, getUser, safeRedirect, SignInError } from "~/lib/auth/auth.server";
 import { Honeypot } from "~/components/ui/honeypot";
 import { getDb } from "~/lib/db.server";
-import { FORM_NOT_FROM_PAGE } from "~/lib/auth/honeypot";
-import { honeypotStamp, trippedHoneypot } from "~/lib/auth/honeypot.server";
+import { honeypotRefusal, honeypotStamp } from "~/lib/auth/honeypot.server";
 import { requireSameOrigin } from "~/lib/auth/origin.server";
 import { createSession } from "~/lib/auth/session.server";
 
@@ -39,9 +38,10 @@ export async function action({ request }: Route.ActionArgs) {
     return data({ result: submission.reply({ hideFields: ["password"] }) }, { status: 400 });
   }
   // a script, not a person: no password is checked
-  if (trippedHoneypot(formData))
+  const refusal = honeypotRefusal(formData);
+  if (refusal)
     return data(
-      { result: submission.reply({ formErrors: [FORM_NOT_FROM_PAGE], hideFields: ["password"] }) },
+      { result: submission.reply({ formErrors: [refusal], hideFields: ["password"] }) },
       { status: 400 },
     );
   try {
