@@ -122,7 +122,12 @@ export const ROWS: Row[] = [
     path: "/packages/999999/bench",
     method: "POST",
     body: { intent: "set-units", units: "metric" },
-    expect: staffOnly("owner", "builder", "service_writer"),
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
   },
   {
     path: "/packages/999999/bench",
