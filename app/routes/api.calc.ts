@@ -1,9 +1,12 @@
 import { z } from "zod";
 import type { Route } from "./+types/api.calc";
 import { requireApiPermission } from "~/lib/auth/api.server";
-import { computeSpec, SPEC_FIELDS } from "../../calc";
+import { readJson } from "~/lib/http/body";
+import { computeSpec, SPEC_FIELDS, THRESHOLD_KEYS } from "../../calc";
 
 // POST /api/calc — a spec (JSON, calc's field names in mm, cc, ° and rpm) in, figures out.
+// Only calc's own field and threshold names are read; any other key (also `__proto__`,
+// `constructor`, …) is "not a spec field".
 const numberOrNull = z.number({ error: "must be a number" }).finite().nullable().optional();
 const SpecBody = z
   .object(
@@ -12,31 +15,40 @@ const SpecBody = z
       typeof numberOrNull
     >,
   )
-  .extend({ thresholds: z.record(z.string(), z.number().finite().nullable()).optional() })
+  .extend({
+    thresholds: z
+      .object(Object.fromEntries(THRESHOLD_KEYS.map((k) => [k, numberOrNull])))
+      .strict()
+      .optional(),
+  })
   .strict();
+
+/** Errors by field, kept in a Map so no key the caller sends can reach an inherited name. */
+function collect(pairs: [string, string][]) {
+  const m = new Map<string, string[]>();
+  for (const [k, v] of pairs) m.set(k, [...(m.get(k) ?? []), v]);
+  return Object.fromEntries(m);
+}
 
 export async function action({ request }: Route.ActionArgs) {
   await requireApiPermission(request, "library:read");
   if (request.method !== "POST")
     return Response.json({ error: "Use POST with a JSON body." }, { status: 405 });
-  let body: unknown;
-  try {
-    body = await request.json();
-  } catch {
+  const body = await readJson(request);
+  if (!body.ok)
     return Response.json(
-      { error: "The body is not JSON.", fieldErrors: { spec: ["must be a JSON object"] } },
-      { status: 400 },
+      { error: body.error, fieldErrors: { spec: ["must be a JSON object"] } },
+      { status: body.status },
     );
-  }
-  const parsed = SpecBody.safeParse(body);
+  const parsed = SpecBody.safeParse(body.value);
   if (!parsed.success) {
-    const fieldErrors: Record<string, string[]> = {};
-    for (const i of parsed.error.issues) {
-      const key = i.code === "unrecognized_keys" ? i.keys.join(",") : i.path.join(".") || "spec";
-      (fieldErrors[key] ??= []).push(
-        i.code === "unrecognized_keys" ? "is not a spec field" : i.message,
-      );
-    }
+    const fieldErrors = collect(
+      parsed.error.issues.flatMap((i): [string, string][] =>
+        i.code === "unrecognized_keys"
+          ? i.keys.map((k) => [[...i.path, k].join("."), "is not a spec field"])
+          : [[i.path.join(".") || "spec", i.path.length ? i.message : "must be a JSON object"]],
+      ),
+    );
     return Response.json(
       { error: "The spec has fields that cannot be used.", fieldErrors },
       { status: 400 },
@@ -44,8 +56,7 @@ export async function action({ request }: Route.ActionArgs) {
   }
   const out = computeSpec(parsed.data);
   if (!out.ok) {
-    const fieldErrors: Record<string, string[]> = {};
-    for (const e of out.errors) (fieldErrors[e.field] ??= []).push(e.message);
+    const fieldErrors = collect(out.errors.map((e) => [e.field, e.message]));
     return Response.json({ error: "The spec cannot be computed.", fieldErrors }, { status: 400 });
   }
   return Response.json({

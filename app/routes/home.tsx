@@ -5,7 +5,7 @@ import { requireUser } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
 import { env } from "~/lib/env.server";
 import { homeStats, type HomeStat } from "~/lib/home.server";
-import { ROLE_LABELS } from "~/lib/auth/permissions";
+import { can, ROLE_LABELS } from "~/lib/auth/permissions";
 import { getShopOverview } from "~/lib/shop.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -18,7 +18,17 @@ export async function loader({ request }: Route.LoaderArgs) {
   const links = navFor(user.role, { localMail: Boolean(env().LOCAL_MAIL_API_URL) }).filter(
     (l) => l.to !== "/",
   );
-  return { shop, user, stats, statuses, links };
+  // each role gets only the shop fields it may see: the labour rate is a price
+  const shopView = shop
+    ? {
+        name: shop.name,
+        city: shop.city,
+        phone: shop.phone,
+        email: shop.email,
+        ...(can(user.role, "prices:read") ? { labour_rate_cents: shop.labour_rate_cents } : {}),
+      }
+    : null;
+  return { shop: shopView, user, stats, statuses, links };
 }
 
 const STATUS_LABELS: Record<string, string> = {

@@ -1,3 +1,4 @@
+import { PUBLIC_FORM, readForm } from "~/lib/http/body";
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
@@ -10,8 +11,7 @@ import { TextField } from "~/components/ui/field";
 import { hashPassword } from "~/lib/auth/auth.server";
 import { Honeypot } from "~/components/ui/honeypot";
 import { getDb } from "~/lib/db.server";
-import { FORM_NOT_FROM_PAGE } from "~/lib/auth/honeypot";
-import { honeypotStamp, trippedHoneypot } from "~/lib/auth/honeypot.server";
+import { honeypotRefusal, honeypotStamp } from "~/lib/auth/honeypot.server";
 import { requireSameOrigin } from "~/lib/auth/origin.server";
 import { NewPasswordFields, passwordsMatch } from "~/lib/auth/passwords";
 import { ROLE_LABELS } from "~/lib/auth/permissions";
@@ -43,7 +43,7 @@ export async function loader({ params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   requireSameOrigin(request);
-  const formData = await request.formData();
+  const formData = await readForm(request, PUBLIC_FORM);
   const submission = parseWithZod(formData, { schema: AcceptSchema });
   if (submission.status !== "success") {
     return data(
@@ -51,11 +51,12 @@ export async function action({ request, params }: Route.ActionArgs) {
       { status: 400 },
     );
   }
-  if (trippedHoneypot(formData)) {
+  const refusal = honeypotRefusal(formData);
+  if (refusal) {
     return data(
       {
         result: submission.reply({
-          formErrors: [FORM_NOT_FROM_PAGE],
+          formErrors: [refusal],
           hideFields: ["password", "confirm"],
         }),
       },

@@ -1,3 +1,5 @@
+import { readQuery } from "~/lib/http/text";
+import { PUBLIC_FORM, readForm } from "~/lib/http/body";
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { useState } from "react";
@@ -11,8 +13,7 @@ import { TextField } from "~/components/ui/field";
 import { authenticator, getUser, safeRedirect, SignInError } from "~/lib/auth/auth.server";
 import { Honeypot } from "~/components/ui/honeypot";
 import { getDb } from "~/lib/db.server";
-import { FORM_NOT_FROM_PAGE } from "~/lib/auth/honeypot";
-import { honeypotStamp, trippedHoneypot } from "~/lib/auth/honeypot.server";
+import { honeypotRefusal, honeypotStamp } from "~/lib/auth/honeypot.server";
 import { requireSameOrigin } from "~/lib/auth/origin.server";
 import { createSession } from "~/lib/auth/session.server";
 
@@ -24,22 +25,23 @@ export const LoginSchema = z.object({
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request);
-  if (user) throw redirect(safeRedirect(new URL(request.url).searchParams.get("redirectTo")));
+  if (user) throw redirect(safeRedirect(readQuery(request).get("redirectTo")));
   return honeypotStamp();
 }
 
 export async function action({ request }: Route.ActionArgs) {
   requireSameOrigin(request);
   // The form strategy reads the body itself, so parse a copy.
-  const formData = await request.clone().formData();
+  const formData = await readForm(request.clone(), PUBLIC_FORM);
   const submission = parseWithZod(formData, { schema: LoginSchema });
   if (submission.status !== "success") {
     return data({ result: submission.reply({ hideFields: ["password"] }) }, { status: 400 });
   }
   // a script, not a person: no password is checked
-  if (trippedHoneypot(formData))
+  const refusal = honeypotRefusal(formData);
+  if (refusal)
     return data(
-      { result: submission.reply({ formErrors: [FORM_NOT_FROM_PAGE], hideFields: ["password"] }) },
+      { result: submission.reply({ formErrors: [refusal], hideFields: ["password"] }) },
       { status: 400 },
     );
   try {
@@ -55,6 +57,14 @@ export async function action({ request }: Route.ActionArgs) {
       ? data({ result }, { status: 429, headers: { "Retry-After": String(e.retryAfterSeconds) } })
       : data({ result }, { status: 401 });
   }
+}
+
+/** A refused sign-in's Retry-After reaches the browser (action headers are not passed on by themselves). */
+export function headers({ actionHeaders }: Route.HeadersArgs) {
+  const out = new Headers();
+  const retry = actionHeaders.get("Retry-After");
+  if (retry) out.set("Retry-After", retry);
+  return out;
 }
 
 export default function Login({ loaderData, actionData }: Route.ComponentProps) {

@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { requireIdParam } from "~/lib/http/ids";
 import {
   DndContext,
@@ -50,16 +51,19 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const form = await request.formData();
+  const id = requireIdParam(params);
+  const form = await readForm(request);
   try {
     if (form.get("intent") === "set-units") {
       const user = await requireRole(request, "owner", "builder", "service_writer");
+      if (!(await getPackageHeader(getDb(), id)))
+        throw data("No package with this number.", { status: 404 });
       const units = form.get("units") === "metric" ? "metric" : "inch";
       await setUnits(getDb(), user.id, units);
       return data({ ok: true as const, units });
     }
     const user = await requireRole(request, "owner", "builder");
-    return await runBenchAction(getDb(), user, requireIdParam(params), form);
+    return await runBenchAction(getDb(), user, id, form);
   } catch (e) {
     // the bench keeps the edit and offers to send it again (see useBenchQueue)
     if (!isDatabaseUnreachable(e)) throw e;

@@ -1,4 +1,6 @@
-import { requireIdParam } from "~/lib/http/ids";
+import { readForm } from "~/lib/http/body";
+import { queryInt, requireIdParam, zId } from "~/lib/http/ids";
+import { readQuery } from "~/lib/http/text";
 import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/packages.$id";
@@ -25,9 +27,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const id = requireIdParam(params);
   const header = Number.isInteger(id) && id > 0 ? await getPackageHeader(db, id) : null;
   if (!header) throw data("No package with this number.", { status: 404 });
-  const url = new URL(request.url);
-  const a = Number(url.searchParams.get("a"));
-  const b = Number(url.searchParams.get("b"));
+  const q = readQuery(request);
+  const a = queryInt(q, "a", { message: "Pick a revision number to compare" }) ?? 0;
+  const b = queryInt(q, "b", { message: "Pick a revision number to compare" }) ?? 0;
   const [revisions, statuses, compare] = await Promise.all([
     listRevisions(db, id),
     listStatusChanges(db, id),
@@ -49,15 +51,15 @@ const ActionSchema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("status"), to: z.enum(PACKAGE_STATUSES) }),
   z.object({
     intent: z.literal("restore"),
-    revision: z.coerce.number().int().positive(),
-    expectedRevision: z.coerce.number().int().positive(),
+    revision: zId("Pick a revision to restore"),
+    expectedRevision: zId("The page did not say which revision it showed; reload it"),
   }),
 ]);
 
 export async function action({ request, params }: Route.ActionArgs) {
   // who may send anything here at all, before reading what was sent
   const staff = await requireRole(request, "owner", "builder", "service_writer");
-  const form = Object.fromEntries(await request.formData());
+  const form = Object.fromEntries(await readForm(request));
   const parsed = ActionSchema.safeParse(form);
   const id = requireIdParam(params);
   if (!parsed.success)

@@ -1,3 +1,6 @@
+import { zId } from "~/lib/http/ids";
+import { readQuery } from "~/lib/http/text";
+import { readForm } from "~/lib/http/body";
 import { getFormProps, getInputProps, getSelectProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, redirect } from "react-router";
@@ -15,7 +18,7 @@ const NewPackageSchema = z.discriminatedUnion("mode", [
       .trim()
       .min(2, "Give the package a name")
       .max(120),
-    bikeId: z.coerce.number({ error: "Pick the bike" }).int().positive("Pick the bike"),
+    bikeId: zId("Pick the bike"),
   }),
   z.object({
     mode: z.literal("template"),
@@ -24,8 +27,8 @@ const NewPackageSchema = z.discriminatedUnion("mode", [
       .trim()
       .min(2, "Give the package a name")
       .max(120),
-    bikeId: z.coerce.number({ error: "Pick the bike" }).int().positive("Pick the bike"),
-    sourceId: z.coerce.number({ error: "Pick a template" }).int().positive("Pick a template"),
+    bikeId: zId("Pick the bike"),
+    sourceId: zId("Pick a template"),
   }),
   z.object({
     mode: z.literal("copy"),
@@ -34,11 +37,8 @@ const NewPackageSchema = z.discriminatedUnion("mode", [
       .trim()
       .min(2, "Give the package a name")
       .max(120),
-    bikeId: z.coerce.number({ error: "Pick the bike" }).int().positive("Pick the bike"),
-    sourceId: z.coerce
-      .number({ error: "Pick the package to copy" })
-      .int()
-      .positive("Pick the package to copy"),
+    bikeId: zId("Pick the bike"),
+    sourceId: zId("Pick the package to copy"),
   }),
   z.object({
     mode: z.literal("new-template"),
@@ -53,7 +53,7 @@ const NewPackageSchema = z.discriminatedUnion("mode", [
 export async function loader({ request }: Route.LoaderArgs) {
   await requirePermission(request, "packages:create");
   const db = getDb();
-  const url = new URL(request.url);
+  const query = readQuery(request);
   const [bikes, sources] = await Promise.all([
     db
       .selectFrom("bikes as b")
@@ -72,15 +72,15 @@ export async function loader({ request }: Route.LoaderArgs) {
     bikes,
     sources,
     preset: {
-      bikeId: url.searchParams.get("bike") ?? "",
-      mode: url.searchParams.get("mode") ?? "scratch",
+      bikeId: query.get("bike") ?? "",
+      mode: query.get("mode") ?? "scratch",
     },
   };
 }
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requirePermission(request, "packages:create");
-  const formData = await request.formData();
+  const formData = await readForm(request);
   const submission = parseWithZod(formData, { schema: NewPackageSchema });
   if (submission.status !== "success") return data({ result: submission.reply() }, { status: 400 });
   const db = getDb();

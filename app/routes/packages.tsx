@@ -1,3 +1,6 @@
+import { queryInt } from "~/lib/http/ids";
+import { hasOwnKey } from "~/lib/http/keys";
+import { readQuery } from "~/lib/http/text";
 import { Form, Link } from "react-router";
 import type { Route } from "./+types/packages";
 import { requirePermission } from "~/lib/auth/auth.server";
@@ -10,23 +13,23 @@ import { StatusBadge } from "~/components/packages/status-badge";
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "packages:read");
   const db = getDb();
-  const url = new URL(request.url);
-  const p = url.searchParams;
+  const p = readQuery(request);
   const statusParam = p.get("status") ?? "";
   const status =
     statusParam === "template" || (PACKAGE_STATUSES as readonly string[]).includes(statusParam)
       ? (statusParam as PackageStatus | "template")
       : null;
-  const sort = (p.get("sort") ?? "updated") in SORTS ? (p.get("sort") as SortKey) : "updated";
+  const sortParam = p.get("sort") ?? "updated";
+  const sort: SortKey = hasOwnKey(SORTS, sortParam) ? sortParam : "updated";
   const dir: "asc" | "desc" | undefined =
     p.get("dir") === "asc" ? "asc" : p.get("dir") === "desc" ? "desc" : undefined;
   const filters = {
     status,
-    customerId: Number(p.get("customer")) || null,
-    builderId: Number(p.get("builder")) || null,
+    customerId: queryInt(p, "customer", { message: "Pick a customer from the list" }),
+    builderId: queryInt(p, "builder", { message: "Pick a builder from the list" }),
     sort,
     dir,
-    page: Number(p.get("page")) || 1,
+    page: queryInt(p, "page", { max: 10_000 }) ?? 1,
   };
   const [list, customers, builders] = await Promise.all([
     listPackages(db, filters),

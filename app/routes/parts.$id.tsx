@@ -1,3 +1,5 @@
+import { readQuery } from "~/lib/http/text";
+import { readForm } from "~/lib/http/body";
 import { parseId } from "~/lib/http/ids";
 import { data, Form } from "react-router";
 import type { Route } from "./+types/parts.$id";
@@ -34,7 +36,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return {
     canEdit: can(user.role, "parts:edit"),
     showPrices,
-    saved: new URL(request.url).searchParams.get("saved"),
+    saved: readQuery(request).get("saved"),
     categories,
     part: {
       id: part.id,
@@ -68,7 +70,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requirePermission(request, "parts:edit");
   const part = await findPart(params.id);
-  const formData = await request.formData();
+  const formData = await readForm(request);
   const intent = String(formData.get("intent") ?? "save");
   if (intent === "archive" || intent === "restore")
     return handleArchive(part.id, intent === "archive", user);

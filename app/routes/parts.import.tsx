@@ -1,3 +1,5 @@
+import { readForm } from "~/lib/http/body";
+import { hasControlChars } from "~/lib/http/text";
 import { data, Form, useNavigation } from "react-router";
 import type { Route } from "./+types/parts.import";
 import { PageHeader } from "~/components/ui/page-header";
@@ -21,14 +23,23 @@ const TOO_BIG = `The file is larger than ${MAX_CSV_BYTES / 1024 / 1024} MB. Spli
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requirePermission(request, "parts:edit");
-  const length = Number(request.headers.get("Content-Length") ?? 0);
-  // the form's other fields are small: anything far past the limit is refused unread
-  if (length > MAX_CSV_BYTES * 1.1 + 64 * 1024)
-    return data<ImportData>(
-      { message: TOO_BIG, check: null, csv: null, written: null },
-      { status: 413 },
-    );
-  const form = await request.formData();
+  let form: FormData;
+  try {
+    // the form's other fields are small: anything far past the limit is refused unread
+    form = await readForm(request, {
+      files: true,
+      limitBytes: MAX_CSV_BYTES * 1.1 + 64 * 1024,
+      fieldLimits: { csv: MAX_CSV_BYTES },
+      tooLarge: TOO_BIG,
+    });
+  } catch (e) {
+    if ((e as { init?: { status?: number } })?.init?.status === 413)
+      return data<ImportData>(
+        { message: TOO_BIG, check: null, csv: null, written: null },
+        { status: 413 },
+      );
+    throw e;
+  }
   const file = form.get("file");
   let csv = typeof form.get("csv") === "string" ? String(form.get("csv")) : "";
   if (file instanceof File && file.size > 0) {
@@ -39,6 +50,17 @@ export async function action({ request }: Route.ActionArgs) {
       );
     csv = await file.text();
   }
+  const line = csv.split("\n").findIndex(hasControlChars);
+  if (line >= 0)
+    return data<ImportData>(
+      {
+        message: `Line ${line + 1} of the file contains a control character (such as a NUL byte) that cannot be stored; remove it and check the file again.`,
+        check: null,
+        csv: null,
+        written: null,
+      },
+      { status: 400 },
+    );
   if (!csv.trim())
     return data<ImportData>(
       { message: "Choose a CSV file to check.", check: null, csv: null, written: null },

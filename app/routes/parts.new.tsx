@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import type { Route } from "./+types/parts.new";
 import { PartForm } from "~/components/catalog/part-form";
 import { PageHeader } from "~/components/ui/page-header";
@@ -13,7 +14,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requirePermission(request, "parts:edit");
-  return handlePartSave(await request.formData(), user, null);
+  return handlePartSave(await readForm(request), user, null);
 }
 
 const EMPTY = {

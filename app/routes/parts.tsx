@@ -1,3 +1,6 @@
+import { queryInt } from "~/lib/http/ids";
+import { readQuery } from "~/lib/http/text";
+import { readForm } from "~/lib/http/body";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link } from "react-router";
 import { z } from "zod";
@@ -19,8 +22,7 @@ import { can } from "~/lib/auth/permissions";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "parts:read");
-  const url = new URL(request.url);
-  const p = url.searchParams;
+  const p = readQuery(request);
   const sort = (PART_SORTS as readonly string[]).includes(p.get("sort") ?? "")
     ? (p.get("sort") as PartSort)
     : "part_number";
@@ -31,7 +33,7 @@ export async function loader({ request }: Route.LoaderArgs) {
     archived: p.get("archived") === "1",
     sort: !showPrices && sort === "price" ? ("part_number" as const) : sort,
     dir: p.get("dir") === "desc" ? ("desc" as const) : ("asc" as const),
-    page: Math.min(Number(p.get("page")) || 1, 10_000),
+    page: queryInt(p, "page", { max: 10_000 }) ?? 1,
   };
   const db = getDb();
   const [found, categories] = await Promise.all([
@@ -73,7 +75,7 @@ const CategorySchema = z.object({
 
 export async function action({ request }: Route.ActionArgs) {
   await requirePermission(request, "parts:edit");
-  const submission = parseWithZod(await request.formData(), { schema: CategorySchema });
+  const submission = parseWithZod(await readForm(request), { schema: CategorySchema });
   if (submission.status !== "success")
     return data({ result: submission.reply(), added: null }, { status: 400 });
   const r = await addCategory(getDb(), submission.value.label);

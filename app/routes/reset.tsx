@@ -1,3 +1,5 @@
+import { FormAlert, formErrorsOf } from "~/components/ui/alert";
+import { PUBLIC_FORM, readForm } from "~/lib/http/body";
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, useNavigation } from "react-router";
@@ -9,7 +11,8 @@ import { SubmitButton } from "~/components/ui/button";
 import { TextField } from "~/components/ui/field";
 import { Honeypot } from "~/components/ui/honeypot";
 import { getDb } from "~/lib/db.server";
-import { honeypotStamp, trippedHoneypot } from "~/lib/auth/honeypot.server";
+import { honeypotRefusal, honeypotStamp } from "~/lib/auth/honeypot.server";
+import { FORM_EXPIRED } from "~/lib/auth/honeypot";
 import { requireSameOrigin } from "~/lib/auth/origin.server";
 import { requestPasswordReset } from "~/lib/auth/reset.server";
 
@@ -26,12 +29,19 @@ export async function loader(_: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   requireSameOrigin(request);
-  const formData = await request.formData();
+  const formData = await readForm(request, PUBLIC_FORM);
   const submission = parseWithZod(formData, { schema: ResetRequestSchema });
   if (submission.status !== "success")
     return data({ result: submission.reply(), sent: false }, { status: 400 });
-  // a script that trips the honeypot gets the usual answer, and no mail goes out
-  if (!trippedHoneypot(formData)) await requestPasswordReset(getDb(), submission.value.email);
+  // a page loaded too long ago is told so; a script that trips the honeypot gets the
+  // usual answer, and no mail goes out
+  const refusal = honeypotRefusal(formData);
+  if (refusal === FORM_EXPIRED)
+    return data(
+      { result: submission.reply({ formErrors: [FORM_EXPIRED] }), sent: false },
+      { status: 400 },
+    );
+  if (!refusal) await requestPasswordReset(getDb(), submission.value.email);
   return { result: submission.reply({ resetForm: true }), sent: true };
 }
 
@@ -49,6 +59,7 @@ export default function ResetRequest({ loaderData, actionData }: Route.Component
     >
       <Form method="post" {...getFormProps(form)} className="space-y-4">
         {actionData?.sent ? <Notice>{RESET_SENT}</Notice> : null}
+        <FormAlert id={form.errorId} errors={formErrorsOf(form, actionData?.result)} />
         <TextField
           label="E-mail"
           field={fields.email}

@@ -1,3 +1,4 @@
+import { readQuery } from "~/lib/http/text";
 import { parseId } from "~/lib/http/ids";
 import { data } from "react-router";
 import type { Route } from "./+types/rules.$id";
@@ -30,7 +31,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const canEdit = can(user.role, "rules:edit");
   return {
     canEdit,
-    saved: new URL(request.url).searchParams.get("saved"),
+    saved: readQuery(request).get("saved"),
     rule: { ...rule, updated_at: iso(rule.updated_at), created_at: iso(rule.created_at) },
     history: history.map((h) => ({ ...h, changed_at: iso(h.changed_at) })),
     options: canEdit ? await ruleFormOptions() : null,

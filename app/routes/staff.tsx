@@ -1,3 +1,5 @@
+import { zId } from "~/lib/http/ids";
+import { readForm } from "~/lib/http/body";
 import { getFormProps, useForm, type FieldMetadata } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, useFetcher, useNavigation } from "react-router";
@@ -31,12 +33,12 @@ const StaffSchema = z.discriminatedUnion("intent", [
   }),
   z.object({
     intent: z.literal("role"),
-    userId: z.coerce.number().int().positive(),
+    userId: zId("Pick a staff member from the list"),
     role: roleField,
   }),
-  z.object({ intent: z.literal("disable"), userId: z.coerce.number().int().positive() }),
-  z.object({ intent: z.literal("enable"), userId: z.coerce.number().int().positive() }),
-  z.object({ intent: z.literal("revoke"), inviteId: z.coerce.number().int().positive() }),
+  z.object({ intent: z.literal("disable"), userId: zId("Pick a staff member from the list") }),
+  z.object({ intent: z.literal("enable"), userId: zId("Pick a staff member from the list") }),
+  z.object({ intent: z.literal("revoke"), inviteId: zId("Pick an invite from the list") }),
 ]);
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -49,7 +51,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 export async function action({ request }: Route.ActionArgs) {
   const me = await requirePermission(request, "staff:manage");
   const db = getDb();
-  const submission = await parseWithZod(await request.formData(), {
+  const submission = await parseWithZod(await readForm(request), {
     schema: StaffSchema.superRefine(async (v, ctx) => {
       if (v.intent === "invite" && (await emailInUse(db, v.email))) {
         ctx.addIssue({

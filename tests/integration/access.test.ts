@@ -432,6 +432,17 @@ export const ROWS: Row[] = [
     }),
     expect: staffOnly("owner", "builder", "service_writer"),
   },
+  {
+    path: "/packages/999999/bench",
+    method: "POST",
+    body: { intent: "set-units", units: "metric" },
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
   ...(
     [
       ["set-part", async () => ({ slot: "cylinder", partId: String(await newPart()) })],

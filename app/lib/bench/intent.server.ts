@@ -3,6 +3,8 @@
 import { z } from "zod";
 import { inToMm } from "../../../calc";
 import { SLOT_BY_KEY } from "../packages/slots";
+import { parseId, zId } from "../http/ids";
+import { hasOwnKey } from "../http/keys";
 import { FIELD_SLOT, MEASURED_FIELDS, type BenchIntent, type MeasuredField } from "./spec";
 
 /** Sensible bounds for a typed value, in stored units, with the reason shown when outside. */
@@ -66,36 +68,85 @@ function unitsOf(field: string): readonly string[] {
   return [];
 }
 
-const slotKey = z.string().refine((k) => k in SLOT_BY_KEY, "Unknown slot");
-const unit = z.enum(["mm", "in", "cc", "deg", "rpm", "hp"]).optional();
+const UNKNOWN_SLOT = "That slot is not on the bench; reload the page.";
+const UNKNOWN_FIELD = "That value is not one the bench keeps; reload the page.";
+const UNKNOWN_UNIT = "Pick the unit from the bench (mm, in, cc, °, rpm or hp).";
+const UNKNOWN_INTENT = "The bench did not understand that change; reload the page and try again.";
+const PICK_A_PART = "Pick a part from the list";
+const UNKNOWN_BASIS = "Pick target or estimate for the power figure.";
+const NO_REVISION = "The bench did not say which revision it was based on; reload the page.";
+export const ONLY_SPACES =
+  "Only spaces: enter a number, or empty the box completely to clear the value.";
 
-const IntentSchema = z.discriminatedUnion("intent", [
-  z.object({
-    intent: z.literal("set-part"),
-    slot: slotKey,
-    partId: z.coerce.number().int().positive("Pick a part"),
-  }),
-  z.object({ intent: z.literal("clear-slot"), slot: slotKey }),
-  z.object({
-    intent: z.literal("set-measured"),
-    slot: slotKey,
-    field: z.enum(MEASURED_FIELDS as [MeasuredField, ...MeasuredField[]]),
-    value: z.string(),
-    unit,
-  }),
-  z.object({
-    intent: z.literal("revert-measured"),
-    slot: slotKey,
-    field: z.enum(MEASURED_FIELDS as [MeasuredField, ...MeasuredField[]]),
-  }),
-  z.object({
-    intent: z.literal("set-number"),
-    field: z.enum(["deckClearanceMm", "revLimitRpm", "powerHp"]),
-    value: z.string(),
-    unit,
-  }),
-  z.object({ intent: z.literal("set-basis"), value: z.enum(["target", "estimate", ""]) }),
+const slotKey = z
+  .string({ error: UNKNOWN_SLOT })
+  .refine((k) => hasOwnKey(SLOT_BY_KEY, k), UNKNOWN_SLOT);
+const unit = z.enum(["mm", "in", "cc", "deg", "rpm", "hp"], { error: UNKNOWN_UNIT }).optional();
+const measuredField = z.enum(MEASURED_FIELDS as [MeasuredField, ...MeasuredField[]], {
+  error: UNKNOWN_FIELD,
+});
+const benchValue = z.string({ error: NOT_A_NUMBER });
+
+const IntentSchema = z.discriminatedUnion(
+  "intent",
+  [
+    z.object({
+      intent: z.literal("set-part"),
+      slot: slotKey,
+      partId: zId(PICK_A_PART),
+    }),
+    z.object({ intent: z.literal("clear-slot"), slot: slotKey }),
+    z.object({
+      intent: z.literal("set-measured"),
+      slot: slotKey,
+      field: measuredField,
+      value: benchValue,
+      unit,
+    }),
+    z.object({
+      intent: z.literal("revert-measured"),
+      slot: slotKey,
+      field: measuredField,
+    }),
+    z.object({
+      intent: z.literal("set-number"),
+      field: z.enum(["deckClearanceMm", "revLimitRpm", "powerHp"], { error: UNKNOWN_FIELD }),
+      value: benchValue,
+      unit,
+    }),
+    z.object({
+      intent: z.literal("set-basis"),
+      value: z.enum(["target", "estimate", ""], { error: UNKNOWN_BASIS }),
+    }),
+  ],
+  { error: UNKNOWN_INTENT },
+);
+
+const INTENTS = new Set([
+  "set-part",
+  "clear-slot",
+  "set-measured",
+  "revert-measured",
+  "set-number",
+  "set-basis",
 ]);
+const NUMBER_FIELDS = new Set(["deckClearanceMm", "revLimitRpm", "powerHp"]);
+const MEASURED = new Set<string>(MEASURED_FIELDS);
+
+/**
+ * Where a refusal of a post that did not parse is shown: beside the field when the post
+ * names a real slot and field of the bench, else the form's own message.
+ */
+function refusalKey(raw: Record<string, string>): string {
+  const intent = raw.intent ?? "";
+  if (!INTENTS.has(intent)) return "form";
+  const slot = hasOwnKey(SLOT_BY_KEY, raw.slot) ? raw.slot : null;
+  if (intent === "set-measured" || intent === "revert-measured")
+    return slot && MEASURED.has(raw.field ?? "") ? `${slot}.${raw.field}` : "form";
+  if (intent === "set-part" || intent === "clear-slot") return slot ?? "form";
+  if (intent === "set-number") return NUMBER_FIELDS.has(raw.field ?? "") ? raw.field! : "form";
+  return "form";
+}
 
 export type IntentErrors = Record<string, string[]>;
 
@@ -112,22 +163,24 @@ export function errorKey(action: { intent: string; slot?: string; field?: string
 }
 
 export function parseBenchIntent(form: FormData): ParsedIntent {
-  const raw = Object.fromEntries(
-    [...form.entries()].map(([k, v]) => [k, typeof v === "string" ? v : ""]),
-  );
-  const expected = Number(raw.expectedRevision);
-  const expectedRevision = Number.isInteger(expected) && expected > 0 ? expected : null;
-  const parsed = IntentSchema.safeParse(raw);
+  // own entries only, and only text: a name like `__proto__` is just an unknown field
+  const raw: Record<string, string> = Object.create(null);
+  for (const [k, v] of form.entries()) if (!(k in raw)) raw[k] = typeof v === "string" ? v : "";
+  const expectedRevision = parseId(raw.expectedRevision);
+  const parsed = IntentSchema.safeParse({ ...raw });
   if (!parsed.success) {
-    const errors: IntentErrors = {};
-    const key = errorKey(raw as { intent: string });
-    for (const issue of parsed.error.issues) (errors[key] ??= []).push(issue.message);
-    return { ok: false, errors, expectedRevision };
+    const key = refusalKey(raw);
+    const messages = [...new Set(parsed.error.issues.map((i) => i.message))];
+    return {
+      ok: false,
+      errors: { [key]: messages.length ? messages : [UNKNOWN_INTENT] },
+      expectedRevision,
+    };
   }
   if (expectedRevision === null)
     return {
       ok: false,
-      errors: { form: ["The bench did not say which revision it was based on; reload the page."] },
+      errors: { form: [NO_REVISION] },
       expectedRevision,
     };
   const a = parsed.data;
@@ -140,7 +193,9 @@ export function parseBenchIntent(form: FormData): ParsedIntent {
         expectedRevision,
       };
     }
-    if (a.intent === "set-number" && a.value.trim() === "") {
+    if (a.value !== "" && a.value.trim() === "")
+      return { ok: false, errors: { [key]: [ONLY_SPACES] }, expectedRevision };
+    if (a.intent === "set-number" && a.value === "") {
       return {
         ok: true,
         action: { intent: "set-number", field: a.field, value: null },

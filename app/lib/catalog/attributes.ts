@@ -151,7 +151,7 @@ export const ATTRIBUTE_FIELDS: Record<string, readonly AttributeField[]> = {
 };
 
 export function attributeFieldsFor(category: string): readonly AttributeField[] {
-  return ATTRIBUTE_FIELDS[category] ?? [];
+  return Object.hasOwn(ATTRIBUTE_FIELDS, category) ? ATTRIBUTE_FIELDS[category]! : [];
 }
 
 const UNIT_WORDS: Record<AttributeField["unit"], string> = {

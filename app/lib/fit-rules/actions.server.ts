@@ -1,3 +1,4 @@
+import { readForm } from "../http/body";
 // The rule forms' server side: the same schema as the browser, then the condition
 // checker, the preview and the store. Used by /rules/new and /rules/:id.
 import type { SubmissionResult } from "@conform-to/react";
@@ -41,7 +42,7 @@ export async function handleRuleAction(
   existing: { id: number } | null,
 ) {
   const db = getDb();
-  const formData = await request.formData();
+  const formData = await readForm(request);
   const intent = String(formData.get("intent") ?? "save");
   const isPair = intent.startsWith("pair-");
   const form = isPair ? "pair" : "rule";

@@ -107,7 +107,7 @@ export type { PartRow };
 /** Active parts, searched by number, maker, name or tag; for the parts shelf. */
 export async function searchParts(
   db: Db,
-  opts: { q?: string; category?: string; prices: boolean; limit?: number },
+  opts: { q?: string; category?: string; prices: boolean; limit?: number; offset?: number },
 ): Promise<BenchPart[]> {
   let query = db.selectFrom("parts").select(PART_COLUMNS).where("archived_at", "is", null);
   if (opts.category) query = query.where("category", "=", opts.category);
@@ -126,7 +126,9 @@ export async function searchParts(
   const rows = (await query
     .orderBy("category")
     .orderBy("name")
+    .orderBy("id")
     .limit(opts.limit ?? 60)
+    .offset(opts.offset ?? 0)
     .execute()) as PartRow[];
   return rows.map((r) => toBenchPart(r, opts.prices));
 }
