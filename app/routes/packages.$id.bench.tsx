@@ -19,6 +19,7 @@ import { getDb } from "~/lib/db.server";
 import { can } from "~/lib/auth/permissions";
 import { EDITABLE_STATUSES, resolveFields, toCalcInput, type BenchPart } from "~/lib/bench/spec";
 import { runBenchAction } from "~/lib/bench/action.server";
+import { closeRevisionAction } from "~/lib/packages/revisions.server";
 import { useBenchQueue } from "~/lib/bench/queue";
 import { getBenchState, getPackageHeader, slotOptions } from "~/lib/packages/store.server";
 import { getUnits, setUnits } from "~/lib/units-pref.server";
@@ -58,6 +59,8 @@ export async function action({ request, params }: Route.ActionArgs) {
     return data({ ok: true as const, units });
   }
   const user = await requireRole(request, "owner", "builder");
+  if (form.get("intent") === "close-revision")
+    return closeRevisionAction(getDb(), user, requireIdParam(params), form);
   return runBenchAction(getDb(), user, requireIdParam(params), form);
 }
 

@@ -1,6 +1,6 @@
 // The spec bench's action: each action recomputes with calc/, evaluates the fit rules
-// from PostgreSQL and saves a revision; stale saves are refused; bad values are refused
-// beside their field.
+// from PostgreSQL and saves into the working copy and its edit log; stale saves are
+// refused; bad values are refused beside their field.
 import { randomBytes } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
 import { computeSpec } from "../../calc";
@@ -152,7 +152,7 @@ async function fill(id: number, user = builder) {
     ["cam", "cam"],
     ["rod", "rod"],
   ];
-  let rev = (await current(id)).current_revision;
+  let rev = (await current(id)).version;
   for (const [slot, key] of steps) {
     const r = await act(user, id, {
       intent: "set-part",
@@ -161,7 +161,7 @@ async function fill(id: number, user = builder) {
       expectedRevision: String(rev),
     });
     expect(r.status).toBe(200);
-    rev = r.body.state.revision;
+    rev = r.body.state.version;
   }
   for (const [field, value] of [
     ["deckClearanceMm", "0.25"],
@@ -175,7 +175,7 @@ async function fill(id: number, user = builder) {
       expectedRevision: String(rev),
     });
     expect(r.status).toBe(200);
-    rev = r.body.state.revision;
+    rev = r.body.state.version;
   }
   return rev;
 }
@@ -195,7 +195,7 @@ const SPEC = {
 };
 
 describe("bench actions", () => {
-  it("recompute with calc/ and store the same figures in the revision and on the package", async () => {
+  it("recompute with calc/ and store the figures in the working copy, each edit in the log", async () => {
     const id = await newPackage();
     const rev = await fill(id);
     expect(rev).toBe(10);
@@ -203,20 +203,23 @@ describe("bench actions", () => {
     if (!expected.ok) throw new Error("fixture spec does not compute");
     const row = await current(id);
     expect((row.results as any).results).toEqual(expected.results);
-    const stored = await db
-      .selectFrom("package_revisions")
-      .select(["results", "rule_snapshot", "change"])
-      .where("package_id", "=", id)
-      .where("revision", "=", rev)
-      .executeTakeFirstOrThrow();
-    expect((stored.results as any).results).toEqual(expected.results);
-    expect((stored.rule_snapshot as any).numbers.bore_mm).toBe(101.6);
-    expect((stored.rule_snapshot as any).numbers.cr_static).toBeCloseTo(
+    expect((row.rule_snapshot as any).numbers.bore_mm).toBe(101.6);
+    expect((row.rule_snapshot as any).numbers.cr_static).toBeCloseTo(
       expected.results.staticCr!,
       12,
     );
-    expect(stored.change).toMatch(/Rev limit: 6000/);
     expect(row.rev_limit_rpm).toBe(6000);
+    const logged = await db
+      .selectFrom("package_edits")
+      .select(["spec", "change", "revision"])
+      .where("package_id", "=", id)
+      .where("version", "=", rev)
+      .executeTakeFirstOrThrow();
+    expect(logged.change).toMatch(/Rev limit: 6000/);
+    expect(logged.spec).toEqual(row.spec);
+    // one builder's nine edits are one revision
+    expect(logged.revision).toBe(2);
+    expect(row.current_revision).toBe(2);
   });
 
   it("takes measured values in inches, stores mm, and reverts to nominal", async () => {
@@ -231,7 +234,7 @@ describe("bench actions", () => {
       expectedRevision: String(rev),
     });
     expect(r.status).toBe(200);
-    rev = r.body.state.revision;
+    rev = r.body.state.version;
     expect(r.body.state.spec.slots.gasket.measured.gasketThicknessMm).toBeCloseTo(1.143, 9);
     const expected = computeSpec({ ...SPEC, gasketThicknessMm: 0.045 * 25.4 });
     expect(expected.ok && r.body.state.computation.results.staticCr).toBe(
@@ -258,7 +261,7 @@ describe("bench actions", () => {
     for (const f of steps) {
       const r = await act(builder, id, { ...f, expectedRevision: String(rev) });
       expect(r.status).toBe(200);
-      rev = r.body.state.revision;
+      rev = r.body.state.version;
       answers.push(r.body.state);
     }
     // without a power figure the rule could not be checked; the answer that made it fire
@@ -289,13 +292,20 @@ describe("bench actions", () => {
     expect(answers[2].rules).not.toHaveProperty(key);
     expect(answers[2].computation).not.toHaveProperty("steps");
 
-    // saved by rule version on both rows; the bench reads the name and message from that version
+    // saved by rule version on the working copy and, once the revision closes, on the
+    // revision; the bench reads the name and message from that version
     const row = await current(id);
+    const closed = await act(builder, id, {
+      intent: "close-revision",
+      note: "Power upgrade checked",
+      expectedVersion: String(rev),
+    });
+    expect(closed.status).toBe(200);
     const saved = await db
       .selectFrom("package_revisions")
       .select(["findings", "results"])
       .where("package_id", "=", id)
-      .where("revision", "=", rev)
+      .where("revision", "=", row.current_revision)
       .executeTakeFirstOrThrow();
     expect((row.findings as any[]).find((f) => f.ruleId === upgradeRuleId)).toEqual({
       ruleId: upgradeRuleId,
@@ -325,7 +335,7 @@ describe("bench actions", () => {
       expectedRevision: String(rev),
     });
     expect(fixed.body.state.findings.some((f: any) => f.ruleId === upgradeRuleId)).toBe(false);
-    rev = fixed.body.state.revision;
+    rev = fixed.body.state.version;
 
     const bad = await act(builder, id, {
       intent: "set-part",
@@ -384,7 +394,7 @@ describe("bench actions", () => {
       expect(r.status, key).toBe(400);
       expect(r.body.errors[key]?.join(" ")).toMatch(why);
     }
-    expect((await current(id)).current_revision).toBe(rev);
+    expect((await current(id)).version).toBe(rev);
   });
 
   it("refuses a save based on a stale revision with what changed, who and when; two concurrent saves cannot both win", async () => {
@@ -407,8 +417,8 @@ describe("bench actions", () => {
     });
     expect(late.status).toBe(409);
     expect(late.body.stale).toMatchObject({
-      currentRevision: rev + 1,
-      baseRevision: rev,
+      currentVersion: rev + 1,
+      baseVersion: rev,
       savedBy: builder.name,
     });
     expect(late.body.stale.changes).toEqual([
@@ -419,7 +429,7 @@ describe("bench actions", () => {
         after: "88.4 cc",
       },
     ]);
-    expect(late.body.current.revision).toBe(rev + 1);
+    expect(late.body.current.version).toBe(rev + 1);
 
     const base = String(rev + 1);
     const [a, b] = await Promise.all([
@@ -439,12 +449,12 @@ describe("bench actions", () => {
       }),
     ]);
     expect([a.status, b.status].sort()).toEqual([200, 409]);
-    const revs = await db
-      .selectFrom("package_revisions")
-      .select("revision")
+    const edits = await db
+      .selectFrom("package_edits")
+      .select("version")
       .where("package_id", "=", id)
       .execute();
-    expect(revs.length).toBe(rev + 2);
+    expect(edits.length).toBe(rev + 2);
   });
 
   it("lets only owner and builder change the bench; the apprentice cannot open it", async () => {

@@ -1,6 +1,6 @@
 // One bench action on the server: parse, apply to the current spec, recompute, check the
-// fit rules, save as the next revision — or refuse (400 with field errors, 409 when the
-// bench's revision is stale).
+// fit rules, save into the working copy and its edit log — or refuse (400 with field
+// errors, 409 when the bench's version of the working copy is stale).
 import { sql } from "kysely";
 import { data } from "react-router";
 import type { Db } from "../db.server";
@@ -27,7 +27,7 @@ import {
   getBenchState,
   partLabel,
   partMap,
-  saveRevision,
+  saveEdit,
   staleDetails,
   type BenchState,
   type PartRow,
@@ -60,7 +60,7 @@ const CALC_FIELD_LABEL: Record<string, string> = {
 };
 
 type ActionRow = {
-  current_revision: number;
+  version: number;
   spec: unknown;
   status: PackageStatus;
   findings: FindingRef[] | null;
@@ -75,7 +75,7 @@ type ActionRow = {
  */
 function readForAction(db: Db, packageId: number, extraPartId: number | null) {
   return sql<ActionRow>`
-    select p.current_revision, p.spec, p.status, p.findings,
+    select p.version, p.spec, p.status, p.findings,
       (select count(*)::text || '|' || coalesce(sum(version), 0)::text || '|' || coalesce(max(updated_at), 'epoch')::text || '|' || coalesce(max(id), 0)::text
          from fit_rules) as rules_fingerprint,
       (select coalesce(json_agg(t), '[]'::json) from (
@@ -104,7 +104,8 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
   const parsed = parseBenchIntent(form);
   if (!parsed.ok)
     return data<BenchActionResult>({ ok: false, errors: parsed.errors }, { status: 400 });
-  const { action, expectedRevision } = parsed;
+  // the form's expectedRevision names the working copy's version the bench is based on
+  const { action, expectedRevision: expectedVersion } = parsed;
   const key = errorKey(action as never);
 
   const row = await readForAction(
@@ -126,8 +127,7 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
       { status: 400 },
     );
   }
-  if (row.current_revision !== expectedRevision)
-    return staleAnswer(db, packageId, expectedRevision);
+  if (row.version !== expectedVersion) return staleAnswer(db, packageId, expectedVersion);
 
   const rules = await activeRules(db, row.rules_fingerprint);
   const known = partMap(row.parts, true);
@@ -173,9 +173,9 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
   }
 
   const change = describeIntent(action, partLabel(ev.parts));
-  const outcome = await saveRevision(
+  const outcome = await saveEdit(
     db,
-    { packageId, expectedRevision, spec: ev.spec, change, userId: user.id },
+    { packageId, expectedVersion, spec: ev.spec, change, userId: user.id, intent: action },
     ev,
   );
   if (outcome.ok) {
@@ -194,7 +194,10 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
     }
     const state: SavedState = {
       packageId,
+      version: outcome.version,
       revision: outcome.revision,
+      revisionOpen: true,
+      revisionEdits: outcome.revisionEdits,
       spec: ev.spec,
       computation: ev.computation,
       findings: ev.findings.map(toFindingRef),
@@ -207,7 +210,7 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
     return data<BenchActionResult>({ ok: true, saved: JSON.stringify(state) });
   }
   if ("missing" in outcome) throw data("This package does not exist.", { status: 404 });
-  return staleAnswer(db, packageId, expectedRevision, outcome);
+  return staleAnswer(db, packageId, expectedVersion, outcome);
 }
 
 async function staleAnswer(db: Db, packageId: number, base: number, known?: StaleSave) {

@@ -1,6 +1,6 @@
 // The bench's edits in the browser: each action is shown at once (calc/ on the spec with
 // every pending action applied), sent one at a time to the route's action with the
-// revision it is based on, and replaced by the server's answer. A stale refusal keeps
+// working copy's version it is based on, and replaced by the server's answer. A stale refusal keeps
 // the user's pending actions so they can be applied on top of the newer revision.
 import { useEffect, useMemo, useRef, useState } from "react";
 import { useFetcher } from "react-router";
@@ -116,9 +116,10 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
     inFlight.current = next;
     sawBusy.current = false;
     dataWhenSent.current = fetcher.data;
-    fetcher.submit({ ...next.fields, expectedRevision: String(base.revision) }, { method: "post" });
+    // expectedRevision: the form field that names the working copy's version
+    fetcher.submit({ ...next.fields, expectedRevision: String(base.version) }, { method: "post" });
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [fetcher.state, fetcher.data, queue, conflict, base.revision]);
+  }, [fetcher.state, fetcher.data, queue, conflict, base.version]);
 
   const spec = useMemo(
     () => queue.reduce((s, a) => (a.intent ? applyIntent(s, a.intent) : s), base.spec),
