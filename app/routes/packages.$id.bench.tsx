@@ -20,6 +20,7 @@ import { can } from "~/lib/auth/permissions";
 import { EDITABLE_STATUSES, resolveFields, toCalcInput, type BenchPart } from "~/lib/bench/spec";
 import { runBenchAction } from "~/lib/bench/action.server";
 import { closeRevisionAction } from "~/lib/packages/revisions.server";
+import { RevisionClose } from "~/components/packages/revision-close";
 import { useBenchQueue } from "~/lib/bench/queue";
 import { getBenchState, getPackageHeader, slotOptions } from "~/lib/packages/store.server";
 import { getUnits, setUnits } from "~/lib/units-pref.server";
@@ -224,6 +225,16 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
           Overview and revisions
         </Link>
       </div>
+      <RevisionClose
+        packageId={header.id}
+        revision={bench.base.revision}
+        open={bench.base.revisionOpen}
+        edits={bench.base.revisionEdits}
+        version={bench.base.version}
+        canEdit={canEdit}
+        pending={bench.pending}
+        onClosed={bench.revisionClosed}
+      />
       {!canEdit ? (
         <p className="mb-3 rounded border border-steel-200 bg-white p-2 text-sm text-steel-700">
           {EDITABLE_STATUSES.includes(header.status)

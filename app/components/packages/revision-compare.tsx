@@ -11,12 +11,14 @@ export type Compare = {
   findingsGone: string[];
 };
 
+const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
+
 export function RevisionCompare({ compare: c }: { compare: Compare }) {
   const rows = [...c.specChanges, ...c.resultChanges];
   return (
     <div className="mt-3 rounded border border-steel-200 p-2" data-testid="revision-compare">
       <p className="text-sm font-semibold">
-        <span className="capitalize">{c.a.label}</span> → {c.b.label}
+        {cap(c.a.label)} → {c.b.label}
       </p>
       {c.a.recomputed || c.b.recomputed ? (
         <p className="text-xs text-steel-700">
@@ -31,8 +33,8 @@ export function RevisionCompare({ compare: c }: { compare: Compare }) {
           <thead className="text-xs text-steel-700">
             <tr>
               <th>Field</th>
-              <th className="capitalize">{c.a.label}</th>
-              <th className="capitalize">{c.b.label}</th>
+              <th>{cap(c.a.label)}</th>
+              <th>{cap(c.b.label)}</th>
             </tr>
           </thead>
           <tbody>

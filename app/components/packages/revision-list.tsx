@@ -58,7 +58,7 @@ export function RevisionList({
     `/packages/${packageId}?a=${pickKey(a)}&b=${pickKey(b)}#compare`;
   const latest = revisions[0];
   return (
-    <section className="rounded border border-steel-200 bg-white p-3">
+    <section id="revisions" className="rounded border border-steel-200 bg-white p-3">
       <h2 className="font-semibold text-ink">Revisions</h2>
       <Form method="get" className="mt-2 flex flex-wrap items-end gap-2 text-sm">
         {(["a", "b"] as const).map((side) => (

@@ -158,5 +158,9 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
     discardMine() {
       setConflict(null);
     },
+    /** The open revision was closed with a note: the next edit opens a new one. */
+    revisionClosed(revision: number) {
+      setBase((b) => (b.revision === revision ? { ...b, revisionOpen: false } : b));
+    },
   };
 }
