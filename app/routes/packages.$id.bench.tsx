@@ -65,6 +65,11 @@ export async function action({ request, params }: Route.ActionArgs) {
   return runBenchAction(getDb(), user, requireIdParam(params), form);
 }
 
+// the action's own answer headers (its saved states skip compression: see action.server.ts)
+export function headers({ actionHeaders, loaderHeaders }: Route.HeadersArgs) {
+  return actionHeaders.has("Cache-Control") ? actionHeaders : loaderHeaders;
+}
+
 export function shouldRevalidate({
   formMethod,
   defaultShouldRevalidate,

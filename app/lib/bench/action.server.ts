@@ -13,21 +13,22 @@ import {
   resolveFields,
   ruleKey,
   toCalcInput,
-  toFindingRef,
   FIELD_LABELS,
   type FindingRef,
   type MeasuredField,
   type RuleInfo,
 } from "./spec";
 import { errorKey, parseBenchIntent, type IntentErrors } from "./intent.server";
-import { loadActiveRules, type RuleForEval } from "../fit-rules/rules.server";
+import { loadActiveRules } from "../fit-rules/rules.server";
+import { findingRefs, prepareRules, type PreparedRules } from "./findings.server";
 import {
   EDITABLE_STATUSES,
-  evaluateSpec,
   getBenchState,
+  partIds,
   partLabel,
   partMap,
   saveEdit,
+  snapshotFor,
   staleDetails,
   type BenchState,
   type PartRow,
@@ -90,15 +91,17 @@ function readForAction(db: Db, packageId: number, extraPartId: number | null) {
     .then((r) => r.rows[0]);
 }
 
-// The active rules of the last fingerprint seen. A changed fingerprint reads them again
-// (loadActiveRules keeps its own cache, checked by its own query).
-let rulesSeen: { fingerprint: string; rules: RuleForEval[] } | null = null;
-async function activeRules(db: Db, fingerprint: string): Promise<RuleForEval[]> {
+// The active rules of the last fingerprint seen, compiled and in findings order. A changed
+// fingerprint reads them again (loadActiveRules keeps its own cache, checked by its own query).
+let rulesSeen: { fingerprint: string; rules: PreparedRules } | null = null;
+async function activeRules(db: Db, fingerprint: string): Promise<PreparedRules> {
   if (rulesSeen?.fingerprint === fingerprint) return rulesSeen.rules;
-  const rules = await loadActiveRules(db);
+  const rules = prepareRules(await loadActiveRules(db));
   rulesSeen = { fingerprint, rules };
   return rules;
 }
+
+const noTransform = { "Cache-Control": "no-transform" };
 
 export async function runBenchAction(db: Db, user: SessionUser, packageId: number, form: FormData) {
   const parsed = parseBenchIntent(form);
@@ -132,10 +135,9 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
   const rules = await activeRules(db, row.rules_fingerprint);
   const known = partMap(row.parts, true);
   const before = normaliseSpec(row.spec);
-  const next = applyIntent(before, action);
-  const ev = await evaluateSpec(db, next, true, rules, known);
+  const spec = applyIntent(before, action);
   if (action.intent === "set-part") {
-    const part = ev.parts.get(action.partId);
+    const part = known.get(action.partId);
     const slot = SLOT_BY_KEY[action.slot]!;
     if (!part || part.archived)
       return data<BenchActionResult>(
@@ -156,12 +158,13 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
       );
     }
   }
+  const computation = computeBench(toCalcInput(spec, resolveFields(spec, known)));
 
   // A typed value that makes the engine impossible is refused; parts that do not go
   // together are saved and reported by the fit rules.
   if (action.intent === "set-measured" || action.intent === "set-number") {
     const was = computeBench(toCalcInput(before, resolveFields(before, known))).inputErrors;
-    const fresh = ev.computation.inputErrors.filter(
+    const fresh = computation.inputErrors.filter(
       (e) => !was.some((w) => w.field === e.field && w.message === e.message),
     );
     if (fresh.length > 0) {
@@ -172,25 +175,26 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
     }
   }
 
-  const change = describeIntent(action, partLabel(ev.parts));
+  // the spec's parts (the row brought the base's parts and the one being put in)
+  const parts = new Map(
+    partIds(spec).flatMap((id) => (known.has(id) ? [[id, known.get(id)!] as const] : [])),
+  );
+  const snapshot = snapshotFor(spec, parts, computation);
+  const findings = findingRefs(snapshot, rules);
+  const change = describeIntent(action, partLabel(parts));
   const outcome = await saveEdit(
     db,
-    { packageId, expectedVersion, spec: ev.spec, change, userId: user.id, intent: action },
-    ev,
+    { packageId, expectedVersion, spec, change, userId: user.id, intent: action },
+    { spec, computation, snapshot, findings },
   );
   if (outcome.ok) {
-    // the bench already knows the rule versions its base revision's findings hit (a rule
-    // that could not be checked showed its error, not its message)
+    // the bench already knows the rule versions its base's findings hit (a rule that could
+    // not be checked showed its error, not its message)
     const had = new Set((row.findings ?? []).filter((f) => f.error === undefined).map(ruleKey));
     const newRules: Record<string, RuleInfo> = {};
-    for (const f of ev.findings) {
-      if (!had.has(ruleKey(f)))
-        newRules[ruleKey(f)] = {
-          name: f.ruleName,
-          message: f.message,
-          upgradeCategory: f.upgradeCategory,
-          suggestedPartId: f.suggestedPartId,
-        };
+    for (const f of findings) {
+      const k = ruleKey(f);
+      if (!had.has(k)) newRules[k] = rules.byKey.get(k)!.info;
     }
     const state: SavedState = {
       packageId,
@@ -198,16 +202,21 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
       revision: outcome.revision,
       revisionOpen: true,
       revisionEdits: outcome.revisionEdits,
-      spec: ev.spec,
-      computation: ev.computation,
-      findings: ev.findings.map(toFindingRef),
+      spec,
+      computation,
+      findings,
       rules: newRules,
-      parts: [...ev.parts.values()],
+      // the bench has its base's parts; only the one put in can be new to it
+      parts: action.intent === "set-part" ? [parts.get(action.partId)!] : [],
       savedBy: user.name,
       savedAt: new Date().toISOString(),
       change,
     };
-    return data<BenchActionResult>({ ok: true, saved: JSON.stringify(state) });
+    return data<BenchActionResult>(
+      { ok: true, saved: JSON.stringify(state) },
+      // a few kB answered to the bench's own fetch: compressing it costs more than it saves
+      { headers: noTransform },
+    );
   }
   if ("missing" in outcome) throw data("This package does not exist.", { status: 404 });
   return staleAnswer(db, packageId, expectedVersion, outcome);

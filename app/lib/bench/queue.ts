@@ -31,7 +31,10 @@ export interface QueuedAction {
 
 export type StaleInfo = Extract<BenchActionResult, { stale: unknown }>;
 
-/** A saved answer as the bench shows it: its findings with the rule names the base already had, or the answer brought. */
+/**
+ * A saved answer as the bench shows it: its findings with the rule names the base already
+ * had, or the answer brought; its parts from the base and the answer.
+ */
 export function savedToState(saved: SavedState, base: BenchState): BenchState {
   const known = new Map<string, RuleInfo>(
     base.findings
@@ -39,8 +42,12 @@ export function savedToState(saved: SavedState, base: BenchState): BenchState {
       .map((f: BenchFinding) => [ruleKey(f), ruleInfoOf(f)]),
   );
   const { rules, ...rest } = saved;
+  // the answer brings only parts the base may lack; the spec's others are the base's
+  const inSpec = new Set(Object.values(saved.spec.slots).map((f) => f.partId));
+  const parts = new Map([...base.parts, ...saved.parts].map((p) => [p.id, p]));
   return {
     ...rest,
+    parts: [...parts.values()].filter((p) => inSpec.has(p.id)),
     findings: saved.findings.map((f) =>
       withRuleInfo(f, rules[ruleKey(f)] ?? known.get(ruleKey(f))),
     ),

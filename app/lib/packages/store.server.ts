@@ -149,6 +149,14 @@ export async function slotOptions(db: Db, prices: boolean): Promise<Record<strin
   return out;
 }
 
+/** What an edit saves: the spec, its figures, its rule snapshot and the rule versions that fire. */
+export interface EditEvaluation {
+  spec: BenchSpec;
+  computation: BenchComputation;
+  snapshot: PackageSnapshot;
+  findings: readonly FindingRef[];
+}
+
 export interface Evaluation {
   spec: BenchSpec;
   computation: BenchComputation;
@@ -527,9 +535,7 @@ export interface StaleSave {
 }
 
 export type SaveOutcome =
-  | ({ ok: true; evaluation: Evaluation } & EditSaved)
-  | StaleSave
-  | { ok: false; stale: false; missing: true };
+  ({ ok: true } & EditSaved) | StaleSave | { ok: false; stale: false; missing: true };
 
 export function partLabel(parts: ReadonlyMap<number, BenchPart>) {
   return (id: number) => {
@@ -553,7 +559,7 @@ export async function saveEdit(
     userId: number;
     intent?: unknown;
   },
-  evaluation?: Evaluation,
+  evaluation?: EditEvaluation,
 ): Promise<SaveOutcome> {
   const ev = evaluation ?? (await evaluateSpec(db, input.spec));
   const sync = syncColumns(ev.spec);
@@ -571,7 +577,7 @@ export async function saveEdit(
     powerHp: sync.power_hp,
     powerBasis: sync.power_basis,
   });
-  if (saved) return { ok: true, ...saved, evaluation: ev };
+  if (saved) return { ok: true, ...saved };
   return staleDetails(db, input.packageId, input.expectedVersion);
 }
 
