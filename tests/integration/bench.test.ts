@@ -8,6 +8,7 @@ import { getDb } from "~/lib/db.server";
 import { ensureBuiltInCategories } from "~/lib/catalog/parts.server";
 import { createRule } from "~/lib/fit-rules/rules.server";
 import { createPackage } from "~/lib/packages/store.server";
+import { decodeFinding } from "~/lib/bench/finding-codes";
 import { action as benchAction, loader as benchLoader } from "~/routes/packages.$id.bench";
 import { createTestUser, requestAs, type TestUser } from "../support/auth";
 
@@ -130,11 +131,11 @@ async function act(user: TestUser, id: number, fields: Record<string, string>) {
     params: { id: String(id) },
     context: {},
   } as never)) as { data: any; init?: { status?: number } };
-  // a saved state is answered as one JSON string
-  const body =
-    typeof out.data.saved === "string"
-      ? { ...out.data, state: JSON.parse(out.data.saved) }
-      : out.data;
+  // a saved state is answered as one JSON string, its findings as short codes
+  const saved = typeof out.data.saved === "string" ? JSON.parse(out.data.saved) : null;
+  const body = saved
+    ? { ...out.data, state: { ...saved, findings: saved.findings.map(decodeFinding) } }
+    : out.data;
   return { status: out.init?.status ?? 200, body };
 }
 

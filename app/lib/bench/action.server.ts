@@ -21,6 +21,7 @@ import {
 import { errorKey, parseBenchIntent, type IntentErrors } from "./intent.server";
 import { loadActiveRules } from "../fit-rules/rules.server";
 import { findingRefs, prepareRules, type PreparedRules } from "./findings.server";
+import { encodeFinding } from "./finding-codes";
 import {
   EDITABLE_STATUSES,
   getBenchState,
@@ -44,7 +45,8 @@ import type { PackageStatus } from "../../../db/schema/packages";
  * are built in the browser from the spec.
  */
 export type SavedState = Omit<BenchState, "findings"> & {
-  findings: FindingRef[];
+  /** the findings as short codes (finding-codes.ts) */
+  findings: string[];
   rules: Record<string, RuleInfo>;
 };
 
@@ -74,9 +76,15 @@ type ActionRow = {
  * the fit-rules table (any change on any app server moves it), and the parts of the
  * current spec together with the part being put in.
  */
-function readForAction(db: Db, packageId: number, extraPartId: number | null) {
+function readForAction(
+  db: Db,
+  packageId: number,
+  extraPartId: number | null,
+  knownVersion: number | null,
+) {
   return sql<ActionRow>`
-    select p.version, p.spec, p.status, p.findings,
+    select p.version, p.spec, p.status,
+      case when p.version = ${knownVersion}::integer then null else p.findings end as findings,
       (select count(*)::text || '|' || coalesce(sum(version), 0)::text || '|' || coalesce(max(updated_at), 'epoch')::text || '|' || coalesce(max(id), 0)::text
          from fit_rules) as rules_fingerprint,
       (select coalesce(json_agg(t), '[]'::json) from (
@@ -103,6 +111,15 @@ async function activeRules(db: Db, fingerprint: string): Promise<PreparedRules> 
 
 const noTransform = { "Cache-Control": "no-transform" };
 
+// The rule versions the working copy's findings hit, by package, as this process last
+// saved them: the next action on that version need not read the findings back.
+const findingsSeen = new Map<number, { version: number; keys: Set<string> }>();
+const MAX_FINDINGS_SEEN = 5000;
+function rememberFindings(packageId: number, version: number, keys: Set<string>) {
+  if (findingsSeen.size >= MAX_FINDINGS_SEEN && !findingsSeen.has(packageId)) findingsSeen.clear();
+  findingsSeen.set(packageId, { version, keys });
+}
+
 export async function runBenchAction(db: Db, user: SessionUser, packageId: number, form: FormData) {
   const parsed = parseBenchIntent(form);
   if (!parsed.ok)
@@ -111,10 +128,12 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
   const { action, expectedRevision: expectedVersion } = parsed;
   const key = errorKey(action as never);
 
+  const seen = findingsSeen.get(packageId);
   const row = await readForAction(
     db,
     packageId,
     action.intent === "set-part" ? action.partId : null,
+    seen?.version ?? null,
   );
   if (!row) throw data("This package does not exist.", { status: 404 });
   if (!EDITABLE_STATUSES.includes(row.status)) {
@@ -190,12 +209,18 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
   if (outcome.ok) {
     // the bench already knows the rule versions its base's findings hit (a rule that could
     // not be checked showed its error, not its message)
-    const had = new Set((row.findings ?? []).filter((f) => f.error === undefined).map(ruleKey));
+    const had =
+      seen && seen.version === row.version
+        ? seen.keys
+        : new Set((row.findings ?? []).filter((f) => f.error === undefined).map(ruleKey));
     const newRules: Record<string, RuleInfo> = {};
+    const keys = new Set<string>();
     for (const f of findings) {
       const k = ruleKey(f);
+      if (f.error === undefined) keys.add(k);
       if (!had.has(k)) newRules[k] = rules.byKey.get(k)!.info;
     }
+    rememberFindings(packageId, outcome.version, keys);
     const state: SavedState = {
       packageId,
       version: outcome.version,
@@ -204,7 +229,7 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
       revisionEdits: outcome.revisionEdits,
       spec,
       computation,
-      findings,
+      findings: findings.map(encodeFinding),
       rules: newRules,
       // the bench has its base's parts; only the one put in can be new to it
       parts: action.intent === "set-part" ? [parts.get(action.partId)!] : [],

@@ -18,6 +18,7 @@ import {
   type RuleInfo,
 } from "./spec";
 import type { BenchActionResult, SavedState } from "./action.server";
+import { decodeFinding } from "./finding-codes";
 import type { BenchState } from "../packages/store.server";
 
 export interface QueuedAction {
@@ -48,9 +49,10 @@ export function savedToState(saved: SavedState, base: BenchState): BenchState {
   return {
     ...rest,
     parts: [...parts.values()].filter((p) => inSpec.has(p.id)),
-    findings: saved.findings.map((f) =>
-      withRuleInfo(f, rules[ruleKey(f)] ?? known.get(ruleKey(f))),
-    ),
+    findings: saved.findings.map((code) => {
+      const f = decodeFinding(code);
+      return withRuleInfo(f, rules[ruleKey(f)] ?? known.get(ruleKey(f)));
+    }),
   };
 }
 

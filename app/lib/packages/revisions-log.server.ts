@@ -80,7 +80,7 @@ export async function writeEdit(db: Db, e: EditInput): Promise<EditSaved | null>
              power_basis = ${e.powerBasis}
         from h
        where p.id = h.id and p.version = ${e.expectedVersion}
-      returning p.id, p.version, p.current_revision, h.how, h.quiet_end, h.open_revision
+      returning p.id, p.version, p.current_revision, p.spec, h.how, h.quiet_end, h.open_revision
     ), closed as (
       update package_revisions r
          set closed_at = case when u.how = 'quiet' then u.quiet_end else ${now} end,
@@ -102,7 +102,7 @@ export async function writeEdit(db: Db, e: EditInput): Promise<EditSaved | null>
     ), logged as (
       insert into package_edits (package_id, version, revision, user_id, at, change, intent, spec)
       select u.id, u.version, u.current_revision, ${e.userId}::integer, ${now}, ${e.change},
-             ${e.intent === null ? null : JSON.stringify(e.intent)}::jsonb, ${e.spec}::jsonb
+             ${e.intent === null ? null : JSON.stringify(e.intent)}::jsonb, u.spec
         from u
       returning version
     )
