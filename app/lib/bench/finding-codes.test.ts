@@ -20,6 +20,7 @@ describe("finding codes", () => {
 
   it("read back every finding as it was", () => {
     let withError = 0;
+    let without = 0;
     fc.assert(
       fc.property(
         fc.record(
@@ -33,13 +34,14 @@ describe("finding codes", () => {
         ),
         (f) => {
           if (f.error !== undefined) withError++;
+          else without++;
           expect(decodeFinding(encodeFinding(f as FindingRef))).toEqual(f);
         },
       ),
       { numRuns: 300 },
     );
     // both branches are reached: with and without a reason
-    expect(withError).toBeGreaterThan(50);
-    expect(withError).toBeLessThan(250);
+    expect(withError).toBeGreaterThan(30);
+    expect(without).toBeGreaterThan(30);
   });
 });
