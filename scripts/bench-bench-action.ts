@@ -18,6 +18,7 @@ import path from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { gzipSync } from "node:zlib";
 import autocannon, { type Request as LoadRequest } from "autocannon";
+import { sql } from "kysely";
 import pg from "pg";
 import { generatedCondition } from "./lib/generated-rules";
 
@@ -156,7 +157,47 @@ const freePort = () =>
 // dir) and prints where its CPU time went while the bench action was under load.
 const PROFILE_DIR = process.env.BENCH_PROFILE ? path.resolve(process.env.BENCH_PROFILE) : null;
 
-type Server = { url: string; stop: () => Promise<void> };
+type Server = { url: string; pid: number; stop: () => Promise<void> };
+
+/**
+ * CPU time (ms, user + system) used so far by a process and all its descendants, from
+ * /proc: what a request costs whatever else the machine runs.
+ */
+function cpuMs(rootPid: number): number {
+  const stats = new Map<number, { ppid: number; ticks: number }>();
+  for (const d of readdirSync("/proc")) {
+    if (!/^\d+$/.test(d)) continue;
+    try {
+      const st = readFileSync(`/proc/${d}/stat`, "utf8");
+      const f = st.slice(st.lastIndexOf(")") + 2).split(" ");
+      // after the name: state ppid … utime (14th field overall) stime (15th)
+      stats.set(Number(d), { ppid: Number(f[1]), ticks: Number(f[11]) + Number(f[12]) });
+    } catch {
+      // the process ended meanwhile
+    }
+  }
+  let ticks = 0;
+  const mine = new Set([rootPid]);
+  // parents have smaller pids than most of their children, but not always: repeat until stable
+  for (let grew = true; grew;) {
+    grew = false;
+    for (const [pid, st] of stats)
+      if (!mine.has(pid) && mine.has(st.ppid)) {
+        mine.add(pid);
+        grew = true;
+      }
+  }
+  for (const pid of mine) ticks += stats.get(pid)?.ticks ?? 0;
+  return ticks * 10; // USER_HZ is 100 on Linux
+}
+// the PostgreSQL server's main process: the parent of this connection's backend
+const pgPid = await sql<{ pid: number }>`select pg_backend_pid() as pid`
+  .execute(db)
+  .then((r) => {
+    const st = readFileSync(`/proc/${r.rows[0]!.pid}/stat`, "utf8");
+    return Number(st.slice(st.lastIndexOf(")") + 2).split(" ")[1]);
+  })
+  .catch(() => null);
 
 /** The production server (scripts/serve.mjs) without its access log, with `workers` processes. */
 async function startServer(workers: number): Promise<Server> {
@@ -193,6 +234,7 @@ async function startServer(workers: number): Promise<Server> {
     if (!exited) child.kill("SIGKILL");
   };
   running.add(stop);
+  const pid = child.pid!;
   for (let i = 0; ; i++) {
     if (exited) throw new Error("the server stopped before answering");
     try {
@@ -205,6 +247,7 @@ async function startServer(workers: number): Promise<Server> {
   }
   return {
     url,
+    pid,
     stop: async () => {
       await stop();
       running.delete(stop);
@@ -313,6 +356,9 @@ try {
     errors: number;
     /** edit-log rows written per second during the run */
     editsPerSecond: number;
+    /** CPU per request: the app server's processes, and PostgreSQL's (null when unknown) */
+    appCpuMs: number;
+    pgCpuMs: number | null;
   };
   /** process.hrtime in µs: the same monotonic clock as the server's CPU profile */
   const usNow = () => Number(process.hrtime.bigint() / 1000n);
@@ -335,6 +381,8 @@ try {
       non2xx,
       errors,
       editsPerSecond: edits / seconds,
+      appCpuMs: 0,
+      pgCpuMs: null,
     };
   }
 
@@ -403,6 +451,7 @@ try {
             },
           ];
     const editsBefore = kind === "action" ? await editRows() : 0;
+    const cpuBefore = [cpuMs(server.pid), pgPid ? cpuMs(pgPid) : 0];
     const started = usNow();
     const instance = autocannon({
       url: server.url,
@@ -415,9 +464,13 @@ try {
       samples.push(ms),
     );
     const result = await instance;
+    const cpuAfter = [cpuMs(server.pid), pgPid ? cpuMs(pgPid) : 0];
     if (kind === "action") actionWindows.push([started, usNow()]);
     const edits = kind === "action" ? (await editRows()) - editsBefore : 0;
-    return stats(samples, result.duration || seconds, result.non2xx, result.errors, edits);
+    const f = stats(samples, result.duration || seconds, result.non2xx, result.errors, edits);
+    f.appCpuMs = (cpuAfter[0]! - cpuBefore[0]!) / Math.max(1, f.total);
+    f.pgCpuMs = pgPid ? (cpuAfter[1]! - cpuBefore[1]!) / Math.max(1, f.total) : null;
+    return f;
   }
 
   const load = (await import("node:os")).loadavg();
@@ -480,7 +533,7 @@ try {
     `  load average of the machine (1 min) before / after: ${load[0]!.toFixed(2)} / ${loadAfter[0]!.toFixed(2)} on ${(await import("node:os")).cpus().length} cores`,
   );
   console.log(
-    "  what              workers conn   median      p95      req/s  of floor   requests  non-2xx  edit rows/s",
+    "  what              workers conn   median      p95      req/s  of floor   requests  non-2xx  edit rows/s  CPU ms/request (app + PostgreSQL)",
   );
   for (const r of rows) {
     const floor = rows.find(
@@ -488,7 +541,7 @@ try {
     )!.f;
     const share = r.what === "bench action" ? `${((100 * r.f.rps) / floor.rps).toFixed(0)} %` : "";
     console.log(
-      `  ${r.what.padEnd(17)} ${String(r.workers).padStart(7)} ${String(r.c).padStart(4)} ${ms(r.f.median)} ${ms(r.f.p95)} ${r.f.rps.toFixed(0).padStart(10)} ${share.padStart(9)} ${String(r.f.total).padStart(10)} ${String(r.f.non2xx + r.f.errors).padStart(8)} ${r.what === "bench action" ? r.f.editsPerSecond.toFixed(0).padStart(12) : ""}`,
+      `  ${r.what.padEnd(17)} ${String(r.workers).padStart(7)} ${String(r.c).padStart(4)} ${ms(r.f.median)} ${ms(r.f.p95)} ${r.f.rps.toFixed(0).padStart(10)} ${share.padStart(9)} ${String(r.f.total).padStart(10)} ${String(r.f.non2xx + r.f.errors).padStart(8)} ${(r.what === "bench action" ? r.f.editsPerSecond.toFixed(0) : "").padStart(12)}  ${r.f.appCpuMs.toFixed(2)} + ${r.f.pgCpuMs === null ? "?" : r.f.pgCpuMs.toFixed(2)}`,
     );
   }
   const at10 = rows.find((r) => r.what === "bench action" && r.c === 10 && r.workers === 1)!.f;
