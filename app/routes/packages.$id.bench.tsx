@@ -20,6 +20,8 @@ import { DB_UNREACHABLE_SAVE_MESSAGE, getDb, isDatabaseUnreachable } from "~/lib
 import { can } from "~/lib/auth/permissions";
 import { EDITABLE_STATUSES, resolveFields, toCalcInput, type BenchPart } from "~/lib/bench/spec";
 import { runBenchAction, type BenchActionResult } from "~/lib/bench/action.server";
+import { closeRevisionAction } from "~/lib/packages/revisions.server";
+import { RevisionClose } from "~/components/packages/revision-close";
 import { useBenchQueue } from "~/lib/bench/queue";
 import { getBenchState, getPackageHeader, slotOptions } from "~/lib/packages/store.server";
 import { getUnits, setUnits } from "~/lib/units-pref.server";
@@ -63,6 +65,8 @@ export async function action({ request, params }: Route.ActionArgs) {
       return data({ ok: true as const, units });
     }
     const user = await requireRole(request, "owner", "builder");
+    if (form.get("intent") === "close-revision")
+      return await closeRevisionAction(getDb(), user, id, form);
     return await runBenchAction(getDb(), user, id, form);
   } catch (e) {
     // the bench keeps the edit and offers to send it again (see useBenchQueue)
@@ -72,6 +76,11 @@ export async function action({ request, params }: Route.ActionArgs) {
       { status: 503, headers: { "Retry-After": "5" } },
     );
   }
+}
+
+// the action's own answer headers (its saved states skip compression: see action.server.ts)
+export function headers({ actionHeaders, loaderHeaders }: Route.HeadersArgs) {
+  return actionHeaders.has("Cache-Control") ? actionHeaders : loaderHeaders;
 }
 
 export function shouldRevalidate({
@@ -263,6 +272,16 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
           Overview and revisions
         </Link>
       </div>
+      <RevisionClose
+        packageId={header.id}
+        revision={bench.base.revision}
+        open={bench.base.revisionOpen}
+        edits={bench.base.revisionEdits}
+        version={bench.base.version}
+        canEdit={canEdit}
+        pending={bench.pending}
+        onClosed={bench.revisionClosed}
+      />
       {!canEdit ? (
         <p className="mb-3 rounded border border-steel-200 bg-white p-2 text-sm text-steel-700">
           {EDITABLE_STATUSES.includes(header.status)

@@ -9,17 +9,16 @@ import { getDb } from "~/lib/db.server";
 import { can } from "~/lib/auth/permissions";
 import {
   changeStatus,
-  compareRevisions,
   getPackageHeader,
-  listRevisions,
   listStatusChanges,
-  restoreRevision,
   EDITABLE_STATUSES,
   STATUS_TRANSITIONS,
 } from "~/lib/packages/store.server";
+import { compareStates, listRevisions, restoreState } from "~/lib/packages/revisions.server";
+import { parsePick } from "~/lib/packages/revisions";
 import { PACKAGE_STATUSES } from "../../db/schema/packages";
 import { StatusBadge } from "~/components/packages/status-badge";
-import { RevisionCompare } from "~/components/packages/revision-compare";
+import { RevisionList } from "~/components/packages/revision-list";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "packages:read");
@@ -28,19 +27,22 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const header = Number.isInteger(id) && id > 0 ? await getPackageHeader(db, id) : null;
   if (!header) throw data("No package with this number.", { status: 404 });
   const q = readQuery(request);
-  const a = queryInt(q, "a", { message: "Pick a revision number to compare" }) ?? 0;
-  const b = queryInt(q, "b", { message: "Pick a revision number to compare" }) ?? 0;
+  const asked = q.has("a") || q.has("b");
+  const a = parsePick(q.get("a"));
+  const b = parsePick(q.get("b"));
+  if ((q.get("a") && !a) || (q.get("b") && !b))
+    throw data("Pick a revision (r3) or an edit (e17) to compare.", { status: 400 });
   const [revisions, statuses, compare] = await Promise.all([
     listRevisions(db, id),
     listStatusChanges(db, id),
-    a > 0 && b > 0 ? compareRevisions(db, id, a, b) : Promise.resolve(null),
+    a && b ? compareStates(db, id, a, b) : Promise.resolve(null),
   ]);
   return {
     header,
     revisions,
     statuses,
     compare,
-    compareAsked: a > 0 && b > 0,
+    compareAsked: asked,
     transitions: header.isTemplate ? [] : STATUS_TRANSITIONS[header.status],
     canEdit: can(user.role, "packages:edit") && EDITABLE_STATUSES.includes(header.status),
     canStatus: can(user.role, "packages:create"),
@@ -51,8 +53,11 @@ const ActionSchema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("status"), to: z.enum(PACKAGE_STATUSES) }),
   z.object({
     intent: z.literal("restore"),
-    revision: zId("Pick a revision to restore"),
-    expectedRevision: zId("The page did not say which revision it showed; reload it"),
+    // "r3" a revision, "e17" the state right after a single edit
+    target: z
+      .string({ error: "Pick a revision to restore" })
+      .transform((t, ctx) => parsePick(t) ?? (ctx.addIssue("Pick a revision to restore"), z.NEVER)),
+    expectedVersion: zId("The page did not say which version it showed; reload it"),
   }),
 ]);
 
@@ -83,24 +88,22 @@ export async function action({ request, params }: Route.ActionArgs) {
       { ok: false as const, message: "This package's spec is locked at its status." },
       { status: 400 },
     );
-  const out = await restoreRevision(
-    db,
-    id,
-    parsed.data.revision,
-    parsed.data.expectedRevision,
-    user.id,
-  );
-  if (!out) return data({ ok: false as const, message: "No such revision." }, { status: 404 });
+  const { target, expectedVersion } = parsed.data;
+  const out = await restoreState(db, id, target, expectedVersion, user.id);
+  const what =
+    target.kind === "edit" ? `The state after edit ${target.number}` : `Revision ${target.number}`;
+  if (!out)
+    return data({ ok: false as const, message: "No such revision or edit." }, { status: 404 });
   if (out.ok)
     return data({
       ok: true as const,
-      message: `Revision ${parsed.data.revision} restored as revision ${out.revision}.`,
+      message: `${what} restored as edit ${out.version} (revision ${out.revision}).`,
     });
   if ("stale" in out && out.stale) {
     return data(
       {
         ok: false as const,
-        message: `Not restored: ${out.savedBy ?? "someone"} saved revision ${out.currentRevision} while you were looking. Review it and try again.`,
+        message: `Not restored: ${out.savedBy ?? "someone"} saved edit ${out.currentVersion} while you were looking. Review it and try again.`,
       },
       { status: 409 },
     );
@@ -183,97 +186,15 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
             ))}
           </ol>
         </section>
-        <section className="rounded border border-steel-200 bg-white p-3">
-          <h2 className="font-semibold text-ink">Revisions</h2>
-          <Form method="get" className="mt-2 flex flex-wrap items-end gap-2 text-sm">
-            <label className="flex flex-col">
-              <span className="text-xs text-steel-700">Compare</span>
-              <select
-                name="a"
-                defaultValue={compare?.a.revision ?? Math.max(1, header.revision - 1)}
-                className="rounded border border-steel-300 px-1 py-1"
-              >
-                {revisions.map((r) => (
-                  <option key={r.revision} value={r.revision}>
-                    revision {r.revision}
-                  </option>
-                ))}
-              </select>
-            </label>
-            <label className="flex flex-col">
-              <span className="text-xs text-steel-700">with</span>
-              <select
-                name="b"
-                defaultValue={compare?.b.revision ?? header.revision}
-                className="rounded border border-steel-300 px-1 py-1"
-              >
-                {revisions.map((r) => (
-                  <option key={r.revision} value={r.revision}>
-                    revision {r.revision}
-                  </option>
-                ))}
-              </select>
-            </label>
-            <button type="submit" className="rounded bg-ink px-3 py-1 font-semibold text-white">
-              Compare
-            </button>
-          </Form>
-          {compare ? (
-            <RevisionCompare compare={compare} />
-          ) : loaderData.compareAsked ? (
-            <p className="mt-2 text-sm text-red-text">One of those revisions does not exist.</p>
-          ) : null}
-          <div className="mt-3 overflow-x-auto">
-            <table className="w-full min-w-[32rem] text-left text-sm">
-              <thead className="text-xs text-steel-700">
-                <tr>
-                  <th className="py-1 pr-2">#</th>
-                  <th className="pr-2">Change</th>
-                  <th className="pr-2">Saved</th>
-                  <th className="pr-2">Findings</th>
-                  <th />
-                </tr>
-              </thead>
-              <tbody>
-                {revisions.map((r) => (
-                  <tr
-                    key={r.revision}
-                    className="border-t border-steel-100"
-                    data-testid={`revision-${r.revision}`}
-                  >
-                    <td className="num py-1 pr-2 align-top">{r.revision}</td>
-                    <td className="pr-2 align-top">{r.change}</td>
-                    <td className="num pr-2 align-top text-steel-700">
-                      {r.savedBy ?? "—"} · {new Date(r.savedAt).toLocaleString()}
-                    </td>
-                    <td className="num pr-2 align-top whitespace-nowrap">
-                      {r.findings}
-                      {r.conflicts ? (
-                        <span className="text-red-text"> ({r.conflicts} conflict)</span>
-                      ) : null}
-                    </td>
-                    <td>
-                      {loaderData.canEdit && r.revision !== header.revision ? (
-                        <Form method="post">
-                          <input type="hidden" name="intent" value="restore" />
-                          <input type="hidden" name="revision" value={r.revision} />
-                          <input type="hidden" name="expectedRevision" value={header.revision} />
-                          <button
-                            type="submit"
-                            disabled={busy}
-                            className="text-xs text-teal-text underline"
-                          >
-                            Restore
-                          </button>
-                        </Form>
-                      ) : null}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        </section>
+        <RevisionList
+          packageId={header.id}
+          revisions={revisions}
+          version={header.version}
+          canEdit={loaderData.canEdit}
+          busy={busy}
+          compare={compare}
+          compareAsked={loaderData.compareAsked}
+        />
       </div>
     </main>
   );

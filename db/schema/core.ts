@@ -12,6 +12,8 @@ export interface ShopTable {
   phone: string;
   email: string;
   labour_rate_cents: number;
+  /** Minutes without an edit after which a package's open revision closes (default 60). */
+  revision_quiet_minutes: Generated<number>;
   created_at: Generated<Timestamp>;
 }
 

@@ -32,9 +32,11 @@ export interface PackageTable {
   power_basis: PowerBasis | null;
   notes: Generated<string>;
   copied_from_id: number | null;
-  /** The optimistic-concurrency token: the revision number a bench save must name. */
+  /** The number of the package's latest revision (open or closed). */
   current_revision: Generated<number>;
-  /** Current revision's spec (BenchSpec in app/lib/bench/spec.ts). */
+  /** The working copy's version: every edit adds one; a bench save must name it (stale-save token). */
+  version: Generated<number>;
+  /** The working copy's spec (BenchSpec in app/lib/bench/spec.ts). */
   spec: JsonCol<unknown>;
   /** Current revision's computed figures (calc's SpecResults, or null fields). */
   results: JsonCol<unknown>;
@@ -50,18 +52,64 @@ export interface PackageTable {
   updated_at: Timestamp;
 }
 
+export const CLOSE_REASONS = [
+  "saved",
+  "started",
+  "note",
+  "other_editor",
+  "status",
+  "quiet",
+] as const;
+/**
+ * Why a revision closed: `saved` one save of the time before named revisions (migrated as it
+ * was), `started` the package's first state, `note` the builder closed it with a note,
+ * `other_editor` someone else started editing, `status` the package changed status,
+ * `quiet` the shop's quiet period passed after its last edit.
+ */
+export type CloseReason = (typeof CLOSE_REASONS)[number];
+
+/**
+ * A named checkpoint holding the edits since the previous one. While open (closed_at null)
+ * its content is the working copy; when it closes, the working copy's content is copied here.
+ */
 export interface PackageRevisionTable {
   id: Generated<number>;
   package_id: number;
   revision: number;
-  spec: JsonCol<unknown>;
-  results: JsonCol<unknown>;
-  rule_snapshot: JsonCol<unknown>;
-  findings: JsonCol<unknown>;
-  /** One line saying what this save changed ("Cylinder: 4.310 in big-bore kit"). */
+  spec: JsonCol<unknown> | null;
+  results: JsonCol<unknown> | null;
+  rule_snapshot: JsonCol<unknown> | null;
+  findings: JsonCol<unknown> | null;
+  /** Its first edit's line, or for a save of the time before named revisions what it changed. */
   change: string;
+  /** The builder's note, when closed with one ("106.4 bore, thinner gasket for 10.5:1"). */
+  note: string | null;
+  /** Whose edits it holds. */
   saved_by: number | null;
+  /** When it last changed (opened, then closed). */
   saved_at: Timestamp;
+  opened_at: Timestamp;
+  closed_at: Timestamp | null;
+  closed_by: number | null;
+  close_reason: CloseReason | null;
+}
+
+/** The append-only edit log: one row per bench edit (or restore), never changed. */
+export interface PackageEditTable {
+  id: Generated<number>;
+  package_id: number;
+  /** The working copy's version this edit made. */
+  version: number;
+  /** The revision holding it. */
+  revision: number;
+  user_id: number | null;
+  at: Timestamp;
+  /** One line saying what it changed ("Cylinder: TW-CYL-1048 Big-bore cylinder pair"). */
+  change: string;
+  /** The bench action as parsed (BenchIntent); null for saves older than the log. */
+  intent: JsonCol<unknown> | null;
+  /** The spec after the edit. */
+  spec: JsonCol<unknown>;
 }
 
 export interface PackageStatusChangeTable {
@@ -82,9 +130,11 @@ export interface UserPreferenceTable {
 export interface PackageTables {
   packages: PackageTable;
   package_revisions: PackageRevisionTable;
+  package_edits: PackageEditTable;
   package_status_changes: PackageStatusChangeTable;
   user_preferences: UserPreferenceTable;
 }
 
 export type PackageRow = Selectable<PackageTable>;
 export type PackageRevisionRow = Selectable<PackageRevisionTable>;
+export type PackageEditRow = Selectable<PackageEditTable>;

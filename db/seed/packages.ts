@@ -5,7 +5,7 @@
 import type { Kysely } from "kysely";
 import type { Database } from "../schema";
 import type { PackageStatus } from "../schema/packages";
-import { changeStatus, createPackage, saveRevision } from "../../app/lib/packages/store.server";
+import { changeStatus, createPackage, saveEdit } from "../../app/lib/packages/store.server";
 import { emptySpec, type BenchSpec } from "../../app/lib/bench/spec";
 
 type Demo = {
@@ -189,17 +189,17 @@ export async function seedPackages(db: Kysely<Database>) {
     );
     // built the way a builder would: engine parts first, then the numbers, then the chassis
     let spec = emptySpec();
-    let revision = 1;
+    let version = 1;
     const save = async (next: BenchSpec, change: string) => {
-      const out = await saveRevision(db, {
+      const out = await saveEdit(db, {
         packageId: id,
-        expectedRevision: revision,
+        expectedVersion: version,
         spec: next,
         change,
         userId: builder.id,
       });
       if (!out.ok) throw new Error(`seed: could not save ${d.name}`);
-      revision = out.revision;
+      version = out.version;
       spec = next;
     };
     const engine = Object.entries(d.parts).filter(([slot]) =>

@@ -405,7 +405,7 @@ export const ROWS: Row[] = [
   {
     path: "/packages/999999",
     method: "POST",
-    body: { intent: "restore", revision: "1", expectedRevision: "1" },
+    body: { intent: "restore", target: "r1", expectedVersion: "1" },
     expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
   },
   {
@@ -469,6 +469,12 @@ export const ROWS: Row[] = [
     path: "/packages/999999/bench",
     method: "POST",
     body: { intent: "clear-slot", slot: "cam", expectedRevision: "1" },
+    expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
+  },
+  {
+    path: "/packages/999999/bench",
+    method: "POST",
+    body: { intent: "close-revision", note: "Checked", expectedVersion: "1" },
     expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
   },
   // JSON routes answer 401 instead of sending a signed-out caller to the sign-in form

@@ -1,6 +1,6 @@
 // The spec bench's action: each action recomputes with calc/, evaluates the fit rules
-// from PostgreSQL and saves a revision; stale saves are refused; bad values are refused
-// beside their field.
+// from PostgreSQL and saves into the working copy and its edit log; stale saves are
+// refused; bad values are refused beside their field.
 import { randomBytes } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
 import { computeSpec } from "../../calc";
@@ -8,6 +8,7 @@ import { getDb } from "~/lib/db.server";
 import { ensureBuiltInCategories } from "~/lib/catalog/parts.server";
 import { createRule, updateRule } from "~/lib/fit-rules/rules.server";
 import { createPackage } from "~/lib/packages/store.server";
+import { decodeFinding } from "~/lib/bench/finding-codes";
 import { action as benchAction, loader as benchLoader } from "~/routes/packages.$id.bench";
 import { createTestUser, requestAs, type TestUser } from "../support/auth";
 
@@ -130,11 +131,11 @@ async function act(user: TestUser, id: number, fields: Record<string, string>) {
     params: { id: String(id) },
     context: {},
   } as never)) as { data: any; init?: { status?: number } };
-  // a saved state is answered as one JSON string
-  const body =
-    typeof out.data.saved === "string"
-      ? { ...out.data, state: JSON.parse(out.data.saved) }
-      : out.data;
+  // a saved state is answered as one JSON string, its findings as short codes
+  const saved = typeof out.data.saved === "string" ? JSON.parse(out.data.saved) : null;
+  const body = saved
+    ? { ...out.data, state: { ...saved, findings: saved.findings.map(decodeFinding) } }
+    : out.data;
   return { status: out.init?.status ?? 200, body };
 }
 
@@ -152,7 +153,7 @@ async function fill(id: number, user = builder) {
     ["cam", "cam"],
     ["rod", "rod"],
   ];
-  let rev = (await current(id)).current_revision;
+  let rev = (await current(id)).version;
   for (const [slot, key] of steps) {
     const r = await act(user, id, {
       intent: "set-part",
@@ -161,7 +162,7 @@ async function fill(id: number, user = builder) {
       expectedRevision: String(rev),
     });
     expect(r.status).toBe(200);
-    rev = r.body.state.revision;
+    rev = r.body.state.version;
   }
   for (const [field, value] of [
     ["deckClearanceMm", "0.25"],
@@ -175,7 +176,7 @@ async function fill(id: number, user = builder) {
       expectedRevision: String(rev),
     });
     expect(r.status).toBe(200);
-    rev = r.body.state.revision;
+    rev = r.body.state.version;
   }
   return rev;
 }
@@ -195,7 +196,7 @@ const SPEC = {
 };
 
 describe("bench actions", () => {
-  it("recompute with calc/ and store the same figures in the revision and on the package", async () => {
+  it("recompute with calc/ and store the figures in the working copy, each edit in the log", async () => {
     const id = await newPackage();
     const rev = await fill(id);
     expect(rev).toBe(10);
@@ -203,20 +204,23 @@ describe("bench actions", () => {
     if (!expected.ok) throw new Error("fixture spec does not compute");
     const row = await current(id);
     expect((row.results as any).results).toEqual(expected.results);
-    const stored = await db
-      .selectFrom("package_revisions")
-      .select(["results", "rule_snapshot", "change"])
-      .where("package_id", "=", id)
-      .where("revision", "=", rev)
-      .executeTakeFirstOrThrow();
-    expect((stored.results as any).results).toEqual(expected.results);
-    expect((stored.rule_snapshot as any).numbers.bore_mm).toBe(101.6);
-    expect((stored.rule_snapshot as any).numbers.cr_static).toBeCloseTo(
+    expect((row.rule_snapshot as any).numbers.bore_mm).toBe(101.6);
+    expect((row.rule_snapshot as any).numbers.cr_static).toBeCloseTo(
       expected.results.staticCr!,
       12,
     );
-    expect(stored.change).toMatch(/Rev limit: 6000/);
     expect(row.rev_limit_rpm).toBe(6000);
+    const logged = await db
+      .selectFrom("package_edits")
+      .select(["spec", "change", "revision"])
+      .where("package_id", "=", id)
+      .where("version", "=", rev)
+      .executeTakeFirstOrThrow();
+    expect(logged.change).toMatch(/Rev limit: 6000/);
+    expect(logged.spec).toEqual(row.spec);
+    // one builder's nine edits are one revision
+    expect(logged.revision).toBe(2);
+    expect(row.current_revision).toBe(2);
   });
 
   it("takes measured values in inches, stores mm, and reverts to nominal", async () => {
@@ -231,7 +235,7 @@ describe("bench actions", () => {
       expectedRevision: String(rev),
     });
     expect(r.status).toBe(200);
-    rev = r.body.state.revision;
+    rev = r.body.state.version;
     expect(r.body.state.spec.slots.gasket.measured.gasketThicknessMm).toBeCloseTo(1.143, 9);
     const expected = computeSpec({ ...SPEC, gasketThicknessMm: 0.045 * 25.4 });
     expect(expected.ok && r.body.state.computation.results.staticCr).toBe(
@@ -258,7 +262,7 @@ describe("bench actions", () => {
     for (const f of steps) {
       const r = await act(builder, id, { ...f, expectedRevision: String(rev) });
       expect(r.status).toBe(200);
-      rev = r.body.state.revision;
+      rev = r.body.state.version;
       answers.push(r.body.state);
     }
     // without a power figure the rule could not be checked; the answer that made it fire
@@ -289,13 +293,20 @@ describe("bench actions", () => {
     expect(answers[2].rules).not.toHaveProperty(key);
     expect(answers[2].computation).not.toHaveProperty("steps");
 
-    // saved by rule version on both rows; the bench reads the name and message from that version
+    // saved by rule version on the working copy and, once the revision closes, on the
+    // revision; the bench reads the name and message from that version
     const row = await current(id);
+    const closed = await act(builder, id, {
+      intent: "close-revision",
+      note: "Power upgrade checked",
+      expectedVersion: String(rev),
+    });
+    expect(closed.status).toBe(200);
     const saved = await db
       .selectFrom("package_revisions")
       .select(["findings", "results"])
       .where("package_id", "=", id)
-      .where("revision", "=", rev)
+      .where("revision", "=", row.current_revision)
       .executeTakeFirstOrThrow();
     expect((row.findings as any[]).find((f) => f.ruleId === upgradeRuleId)).toEqual({
       ruleId: upgradeRuleId,
@@ -325,7 +336,7 @@ describe("bench actions", () => {
       expectedRevision: String(rev),
     });
     expect(fixed.body.state.findings.some((f: any) => f.ruleId === upgradeRuleId)).toBe(false);
-    rev = fixed.body.state.revision;
+    rev = fixed.body.state.version;
 
     const bad = await act(builder, id, {
       intent: "set-part",
@@ -384,7 +395,7 @@ describe("bench actions", () => {
       expect(r.status, key).toBe(400);
       expect(r.body.errors[key]?.join(" ")).toMatch(why);
     }
-    expect((await current(id)).current_revision).toBe(rev);
+    expect((await current(id)).version).toBe(rev);
   });
 
   it("refuses a save based on a stale revision with what changed, who and when; two concurrent saves cannot both win", async () => {
@@ -407,8 +418,8 @@ describe("bench actions", () => {
     });
     expect(late.status).toBe(409);
     expect(late.body.stale).toMatchObject({
-      currentRevision: rev + 1,
-      baseRevision: rev,
+      currentVersion: rev + 1,
+      baseVersion: rev,
       savedBy: builder.name,
     });
     expect(late.body.stale.changes).toEqual([
@@ -419,7 +430,7 @@ describe("bench actions", () => {
         after: "88.4 cc",
       },
     ]);
-    expect(late.body.current.revision).toBe(rev + 1);
+    expect(late.body.current.version).toBe(rev + 1);
 
     const base = String(rev + 1);
     const [a, b] = await Promise.all([
@@ -439,12 +450,12 @@ describe("bench actions", () => {
       }),
     ]);
     expect([a.status, b.status].sort()).toEqual([200, 409]);
-    const revs = await db
-      .selectFrom("package_revisions")
-      .select("revision")
+    const edits = await db
+      .selectFrom("package_edits")
+      .select("version")
       .where("package_id", "=", id)
       .execute();
-    expect(revs.length).toBe(rev + 2);
+    expect(edits.length).toBe(rev + 2);
   });
 
   it("lets only owner and builder change the bench; the apprentice cannot open it", async () => {

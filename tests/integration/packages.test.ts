@@ -122,12 +122,8 @@ async function list(user: TestUser, query: string) {
 
 async function bench(user: TestUser, id: number, fields: Record<string, string>) {
   const rev = (
-    await db
-      .selectFrom("packages")
-      .select("current_revision")
-      .where("id", "=", id)
-      .executeTakeFirstOrThrow()
-  ).current_revision;
+    await db.selectFrom("packages").select("version").where("id", "=", id).executeTakeFirstOrThrow()
+  ).version;
   const out = await post(
     user,
     `/packages/${id}/bench`,
@@ -136,7 +132,7 @@ async function bench(user: TestUser, id: number, fields: Record<string, string>)
     { id: String(id) },
   );
   expect(out.status).toBe(200);
-  return JSON.parse(out.body.saved).revision as number;
+  return JSON.parse(out.body.saved).version as number;
 }
 
 describe("package list", () => {
@@ -531,7 +527,7 @@ describe("status", () => {
 });
 
 describe("revisions", () => {
-  it("compares two revisions field by field: spec, figures and findings", async () => {
+  it("compares two single edits field by field: spec and figures", async () => {
     const id = await createPackage(
       db,
       { name: `Compare ${tag}`, bikeId, isTemplate: false, builderId: builder.id },
@@ -554,12 +550,12 @@ describe("revisions", () => {
       unit: "rpm",
     }); // 6
 
-    const view = (await call(overviewLoader, await requestAs(writer, `/packages/${id}?a=3&b=6`), {
+    const view = (await call(overviewLoader, await requestAs(writer, `/packages/${id}?a=e3&b=e6`), {
       id: String(id),
     })) as any;
     const c = view.compare;
-    expect(c.a.revision).toBe(3);
-    expect(c.b.revision).toBe(6);
+    expect(c.a).toMatchObject({ kind: "edit", number: 3 });
+    expect(c.b).toMatchObject({ kind: "edit", number: 6 });
     expect(c.specChanges).toEqual([
       {
         key: "cylinder.part",
@@ -585,63 +581,74 @@ describe("revisions", () => {
     expect(byKey.meanPistonSpeedMs).toMatchObject({ before: "—", after: "22.9" });
     expect(byKey.rodRatio).toBeUndefined(); // no rod in either: unchanged rows are left out
 
-    const same = (await call(overviewLoader, await requestAs(writer, `/packages/${id}?a=6&b=6`), {
+    const same = (await call(overviewLoader, await requestAs(writer, `/packages/${id}?a=e6&b=r2`), {
       id: String(id),
     })) as any;
+    // the open revision 2 is the working copy, which is edit 6
     expect(same.compare).toMatchObject({ specChanges: [], resultChanges: [] });
 
     const missing = (await call(
       overviewLoader,
-      await requestAs(writer, `/packages/${id}?a=2&b=99`),
+      await requestAs(writer, `/packages/${id}?a=e2&b=e99`),
       { id: String(id) },
     )) as any;
     expect(missing).toMatchObject({ compare: null, compareAsked: true });
   });
 
-  it("restores an old revision as a new one, keeping every revision in between", async () => {
+  it("restores an old revision as a new edit, keeping every edit in between", async () => {
     const id = await createPackage(
       db,
       { name: `Restore ${tag}`, bikeId, isTemplate: false, builderId: builder.id },
       builder.id,
     );
-    await bench(builder, id, { intent: "set-part", slot: "cylinder", partId: String(part.cyl) }); // 2
-    await bench(builder, id, { intent: "set-part", slot: "head", partId: String(part.head) }); // 3
-    await bench(builder, id, { intent: "set-part", slot: "cylinder", partId: String(part.cylbig) }); // 4
+    await bench(builder, id, { intent: "set-part", slot: "cylinder", partId: String(part.cyl) }); // edit 2
+    const closed = await post(
+      builder,
+      `/packages/${id}/bench`,
+      { intent: "close-revision", note: "Cylinder only", expectedVersion: "2" },
+      benchAction as never,
+      { id: String(id) },
+    );
+    expect(closed.status).toBe(200);
+    await bench(builder, id, { intent: "set-part", slot: "head", partId: String(part.head) }); // edit 3, revision 3
+    await bench(builder, id, { intent: "set-part", slot: "cylinder", partId: String(part.cylbig) }); // edit 4
     const rev2 = await db
       .selectFrom("package_revisions")
-      .select(["spec", "results"])
+      .select(["spec", "results", "note"])
       .where("package_id", "=", id)
       .where("revision", "=", 2)
       .executeTakeFirstOrThrow();
+    expect(rev2.note).toBe("Cylinder only");
 
     const restore = (fields: Record<string, string>, user = builder) =>
       post(user, `/packages/${id}`, { intent: "restore", ...fields }, overviewAction as never, {
         id: String(id),
       });
-    const stale = await restore({ revision: "2", expectedRevision: "3" });
+    const stale = await restore({ target: "r2", expectedVersion: "3" });
     expect(stale.status).toBe(409);
-    expect(stale.body.message).toMatch(/revision 4/);
-    expect((await restore({ revision: "2", expectedRevision: "4" }, writer)).status).toBe(403);
-    expect((await restore({ revision: "42", expectedRevision: "4" })).status).toBe(404);
+    expect(stale.body.message).toMatch(/edit 4/);
+    expect((await restore({ target: "r2", expectedVersion: "4" }, writer)).status).toBe(403);
+    expect((await restore({ target: "r42", expectedVersion: "4" })).status).toBe(404);
+    expect((await restore({ target: "x2", expectedVersion: "4" })).status).toBe(400);
 
-    const ok = await restore({ revision: "2", expectedRevision: "4" });
+    const ok = await restore({ target: "r2", expectedVersion: "4" });
     expect(ok.status).toBe(200);
-    expect(ok.body.message).toBe("Revision 2 restored as revision 5.");
+    expect(ok.body.message).toBe("Revision 2 restored as edit 5 (revision 3).");
     const row = await db
       .selectFrom("packages")
-      .select(["current_revision", "spec", "results"])
+      .select(["version", "current_revision", "spec", "results"])
       .where("id", "=", id)
       .executeTakeFirstOrThrow();
-    expect(row.current_revision).toBe(5);
+    expect(row).toMatchObject({ version: 5, current_revision: 3 });
     expect(row.spec).toEqual(rev2.spec);
     expect(row.results).toEqual(rev2.results);
-    const revs = await db
-      .selectFrom("package_revisions")
-      .select(["revision", "change"])
+    const edits = await db
+      .selectFrom("package_edits")
+      .select(["version", "change"])
       .where("package_id", "=", id)
-      .orderBy("revision")
+      .orderBy("version")
       .execute();
-    expect(revs.map((r) => r.revision)).toEqual([1, 2, 3, 4, 5]);
-    expect(revs.at(-1)!.change).toBe("Restored revision 2");
+    expect(edits.map((r) => r.version)).toEqual([1, 2, 3, 4, 5]);
+    expect(edits.at(-1)!.change).toBe("Restored revision 2");
   });
 });

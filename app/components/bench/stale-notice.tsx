@@ -25,9 +25,9 @@ export function StaleNotice({
         Not saved: this package changed since you opened it
       </h2>
       <p className="mt-1 text-steel-700">
-        {s.savedBy ?? "Someone"} saved revision <span className="num">{s.currentRevision}</span> at{" "}
-        <time dateTime={s.savedAt}>{new Date(s.savedAt).toLocaleString()}</time> (you were on
-        revision <span className="num">{s.baseRevision}</span>). The bench now shows their revision.
+        {s.savedBy ?? "Someone"} saved edit <span className="num">{s.currentVersion}</span> at{" "}
+        <time dateTime={s.savedAt}>{new Date(s.savedAt).toLocaleString()}</time> (you were on edit{" "}
+        <span className="num">{s.baseVersion}</span>). The bench now shows their version.
       </p>
       {s.changes.length > 0 ? (
         <table className="mt-2 w-full text-left text-sm">

@@ -1,21 +1,31 @@
 import type { SpecChange } from "~/lib/bench/spec";
 
-type Compare = {
-  a: { revision: number };
-  b: { revision: number };
+type Side = { kind: "revision" | "edit"; number: number; label: string; recomputed: boolean };
+
+export type Compare = {
+  a: Side;
+  b: Side;
   specChanges: SpecChange[];
   resultChanges: { key: string; label: string; before: string; after: string }[];
   findingsAdded: string[];
   findingsGone: string[];
 };
 
+const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
+
 export function RevisionCompare({ compare: c }: { compare: Compare }) {
   const rows = [...c.specChanges, ...c.resultChanges];
   return (
     <div className="mt-3 rounded border border-steel-200 p-2" data-testid="revision-compare">
       <p className="text-sm font-semibold">
-        Revision {c.a.revision} → revision {c.b.revision}
+        {cap(c.a.label)} → {c.b.label}
       </p>
+      {c.a.recomputed || c.b.recomputed ? (
+        <p className="text-xs text-steel-700">
+          A single edit's figures are recomputed from its spec, and its findings come from the fit
+          rules in force now.
+        </p>
+      ) : null}
       {rows.length === 0 ? (
         <p className="text-sm text-steel-700">No field differs.</p>
       ) : (
@@ -23,8 +33,8 @@ export function RevisionCompare({ compare: c }: { compare: Compare }) {
           <thead className="text-xs text-steel-700">
             <tr>
               <th>Field</th>
-              <th>Revision {c.a.revision}</th>
-              <th>Revision {c.b.revision}</th>
+              <th>{cap(c.a.label)}</th>
+              <th>{cap(c.b.label)}</th>
             </tr>
           </thead>
           <tbody>

@@ -1,6 +1,6 @@
 // One bench action on the server: parse, apply to the current spec, recompute, check the
-// fit rules, save as the next revision — or refuse (400 with field errors, 409 when the
-// bench's revision is stale).
+// fit rules, save into the working copy and its edit log — or refuse (400 with field
+// errors, 409 when the bench's version of the working copy is stale).
 import { sql } from "kysely";
 import { data } from "react-router";
 import type { Db } from "../db.server";
@@ -13,21 +13,23 @@ import {
   resolveFields,
   ruleKey,
   toCalcInput,
-  toFindingRef,
   FIELD_LABELS,
   type FindingRef,
   type MeasuredField,
   type RuleInfo,
 } from "./spec";
 import { errorKey, parseBenchIntent, type IntentErrors } from "./intent.server";
-import { loadActiveRules, type RuleForEval } from "../fit-rules/rules.server";
+import { loadActiveRules } from "../fit-rules/rules.server";
+import { findingRefs, prepareRules, type PreparedRules } from "./findings.server";
+import { encodeFinding } from "./finding-codes";
 import {
   EDITABLE_STATUSES,
-  evaluateSpec,
   getBenchState,
+  partIds,
   partLabel,
   partMap,
-  saveRevision,
+  saveEdit,
+  snapshotFor,
   staleDetails,
   type BenchState,
   type PartRow,
@@ -43,7 +45,8 @@ import type { PackageStatus } from "../../../db/schema/packages";
  * are built in the browser from the spec.
  */
 export type SavedState = Omit<BenchState, "findings"> & {
-  findings: FindingRef[];
+  /** the findings as short codes (finding-codes.ts) */
+  findings: string[];
   rules: Record<string, RuleInfo>;
 };
 
@@ -61,7 +64,7 @@ const CALC_FIELD_LABEL: Record<string, string> = {
 };
 
 type ActionRow = {
-  current_revision: number;
+  version: number;
   spec: unknown;
   status: PackageStatus;
   findings: FindingRef[] | null;
@@ -74,9 +77,15 @@ type ActionRow = {
  * the fit-rules table (any change on any app server moves it), and the parts of the
  * current spec together with the part being put in.
  */
-function readForAction(db: Db, packageId: number, extraPartId: number | null) {
+function readForAction(
+  db: Db,
+  packageId: number,
+  extraPartId: number | null,
+  knownVersion: number | null,
+) {
   return sql<ActionRow>`
-    select p.current_revision, p.spec, p.status, p.findings,
+    select p.version, p.spec, p.status,
+      case when p.version = ${knownVersion}::integer then null else p.findings end as findings,
       (select count(*)::text || '|' || coalesce(sum(version), 0)::text || '|' || coalesce(max(updated_at), 'epoch')::text || '|' || coalesce(max(id), 0)::text
          from fit_rules) as rules_fingerprint,
       (select coalesce(json_agg(t), '[]'::json) from (
@@ -91,27 +100,41 @@ function readForAction(db: Db, packageId: number, extraPartId: number | null) {
     .then((r) => r.rows[0]);
 }
 
-// The active rules of the last fingerprint seen. A changed fingerprint reads them again
-// (loadActiveRules keeps its own cache, checked by its own query).
-let rulesSeen: { fingerprint: string; rules: RuleForEval[] } | null = null;
-async function activeRules(db: Db, fingerprint: string): Promise<RuleForEval[]> {
+// The active rules of the last fingerprint seen, compiled and in findings order. A changed
+// fingerprint reads them again (loadActiveRules keeps its own cache, checked by its own query).
+let rulesSeen: { fingerprint: string; rules: PreparedRules } | null = null;
+async function activeRules(db: Db, fingerprint: string): Promise<PreparedRules> {
   if (rulesSeen?.fingerprint === fingerprint) return rulesSeen.rules;
-  const rules = await loadActiveRules(db);
+  const rules = prepareRules(await loadActiveRules(db));
   rulesSeen = { fingerprint, rules };
   return rules;
+}
+
+const noTransform = { "Cache-Control": "no-transform" };
+
+// The rule versions the working copy's findings hit, by package, as this process last
+// saved them: the next action on that version need not read the findings back.
+const findingsSeen = new Map<number, { version: number; keys: Set<string> }>();
+const MAX_FINDINGS_SEEN = 5000;
+function rememberFindings(packageId: number, version: number, keys: Set<string>) {
+  if (findingsSeen.size >= MAX_FINDINGS_SEEN && !findingsSeen.has(packageId)) findingsSeen.clear();
+  findingsSeen.set(packageId, { version, keys });
 }
 
 export async function runBenchAction(db: Db, user: SessionUser, packageId: number, form: FormData) {
   const parsed = parseBenchIntent(form);
   if (!parsed.ok)
     return data<BenchActionResult>({ ok: false, errors: parsed.errors }, { status: 400 });
-  const { action, expectedRevision } = parsed;
+  // the form's expectedRevision names the working copy's version the bench is based on
+  const { action, expectedRevision: expectedVersion } = parsed;
   const key = errorKey(action as never);
 
+  const seen = findingsSeen.get(packageId);
   const row = await readForAction(
     db,
     packageId,
     action.intent === "set-part" ? action.partId : null,
+    seen?.version ?? null,
   );
   if (!row) throw data("This package does not exist.", { status: 404 });
   if (!EDITABLE_STATUSES.includes(row.status)) {
@@ -127,16 +150,14 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
       { status: 400 },
     );
   }
-  if (row.current_revision !== expectedRevision)
-    return staleAnswer(db, packageId, expectedRevision);
+  if (row.version !== expectedVersion) return staleAnswer(db, packageId, expectedVersion);
 
   const rules = await activeRules(db, row.rules_fingerprint);
   const known = partMap(row.parts, true);
   const before = normaliseSpec(row.spec);
-  const next = applyIntent(before, action);
-  const ev = await evaluateSpec(db, next, true, rules, known);
+  const spec = applyIntent(before, action);
   if (action.intent === "set-part") {
-    const part = ev.parts.get(action.partId);
+    const part = known.get(action.partId);
     const slot = SLOT_BY_KEY[action.slot]!;
     if (!part || part.archived)
       return data<BenchActionResult>(
@@ -157,12 +178,13 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
       );
     }
   }
+  const computation = computeBench(toCalcInput(spec, resolveFields(spec, known)));
 
   // A typed value that makes the engine impossible is refused; parts that do not go
   // together are saved and reported by the fit rules.
   if (action.intent === "set-measured" || action.intent === "set-number") {
     const was = computeBench(toCalcInput(before, resolveFields(before, known))).inputErrors;
-    const fresh = ev.computation.inputErrors.filter(
+    const fresh = computation.inputErrors.filter(
       (e) => !was.some((w) => w.field === e.field && w.message === e.message),
     );
     if (fresh.length > 0) {
@@ -173,42 +195,57 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
     }
   }
 
-  const change = describeIntent(action, partLabel(ev.parts));
-  const outcome = await saveRevision(
+  // the spec's parts (the row brought the base's parts and the one being put in)
+  const parts = new Map(
+    partIds(spec).flatMap((id) => (known.has(id) ? [[id, known.get(id)!] as const] : [])),
+  );
+  const snapshot = snapshotFor(spec, parts, computation);
+  const findings = findingRefs(snapshot, rules);
+  const change = describeIntent(action, partLabel(parts));
+  const outcome = await saveEdit(
     db,
-    { packageId, expectedRevision, spec: ev.spec, change, userId: user.id },
-    ev,
+    { packageId, expectedVersion, spec, change, userId: user.id, intent: action },
+    { spec, computation, snapshot, findings },
   );
   if (outcome.ok) {
-    // the bench already knows the rule versions its base revision's findings hit (a rule
-    // that could not be checked showed its error, not its message)
-    const had = new Set((row.findings ?? []).filter((f) => f.error === undefined).map(ruleKey));
+    // the bench already knows the rule versions its base's findings hit (a rule that could
+    // not be checked showed its error, not its message)
+    const had =
+      seen && seen.version === row.version
+        ? seen.keys
+        : new Set((row.findings ?? []).filter((f) => f.error === undefined).map(ruleKey));
     const newRules: Record<string, RuleInfo> = {};
-    for (const f of ev.findings) {
-      if (!had.has(ruleKey(f)))
-        newRules[ruleKey(f)] = {
-          name: f.ruleName,
-          message: f.message,
-          upgradeCategory: f.upgradeCategory,
-          suggestedPartId: f.suggestedPartId,
-        };
+    const keys = new Set<string>();
+    for (const f of findings) {
+      const k = ruleKey(f);
+      if (f.error === undefined) keys.add(k);
+      if (!had.has(k)) newRules[k] = rules.byKey.get(k)!.info;
     }
+    rememberFindings(packageId, outcome.version, keys);
     const state: SavedState = {
       packageId,
+      version: outcome.version,
       revision: outcome.revision,
-      spec: ev.spec,
-      computation: ev.computation,
-      findings: ev.findings.map(toFindingRef),
+      revisionOpen: true,
+      revisionEdits: outcome.revisionEdits,
+      spec,
+      computation,
+      findings: findings.map(encodeFinding),
       rules: newRules,
-      parts: [...ev.parts.values()],
+      // the bench has its base's parts; only the one put in can be new to it
+      parts: action.intent === "set-part" ? [parts.get(action.partId)!] : [],
       savedBy: user.name,
       savedAt: new Date().toISOString(),
       change,
     };
-    return data<BenchActionResult>({ ok: true, saved: JSON.stringify(state) });
+    return data<BenchActionResult>(
+      { ok: true, saved: JSON.stringify(state) },
+      // a few kB answered to the bench's own fetch: compressing it costs more than it saves
+      { headers: noTransform },
+    );
   }
   if ("missing" in outcome) throw data("This package does not exist.", { status: 404 });
-  return staleAnswer(db, packageId, expectedRevision, outcome);
+  return staleAnswer(db, packageId, expectedVersion, outcome);
 }
 
 async function staleAnswer(db: Db, packageId: number, base: number, known?: StaleSave) {

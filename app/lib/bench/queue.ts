@@ -1,6 +1,6 @@
 // The bench's edits in the browser: each action is shown at once (calc/ on the spec with
 // every pending action applied), sent one at a time to the route's action with the
-// revision it is based on, and replaced by the server's answer. A stale refusal keeps
+// working copy's version it is based on, and replaced by the server's answer. A stale refusal keeps
 // the user's pending actions so they can be applied on top of the newer revision.
 import { useEffect, useMemo, useRef, useState } from "react";
 import { useFetcher } from "react-router";
@@ -18,6 +18,7 @@ import {
   type RuleInfo,
 } from "./spec";
 import type { BenchActionResult, SavedState } from "./action.server";
+import { decodeFinding } from "./finding-codes";
 import type { BenchState } from "../packages/store.server";
 
 export interface QueuedAction {
@@ -31,7 +32,10 @@ export interface QueuedAction {
 
 export type StaleInfo = Extract<BenchActionResult, { stale: unknown }>;
 
-/** A saved answer as the bench shows it: its findings with the rule names the base already had, or the answer brought. */
+/**
+ * A saved answer as the bench shows it: its findings with the rule names the base already
+ * had, or the answer brought; its parts from the base and the answer.
+ */
 export function savedToState(saved: SavedState, base: BenchState): BenchState {
   const known = new Map<string, RuleInfo>(
     base.findings
@@ -39,11 +43,16 @@ export function savedToState(saved: SavedState, base: BenchState): BenchState {
       .map((f: BenchFinding) => [ruleKey(f), ruleInfoOf(f)]),
   );
   const { rules, ...rest } = saved;
+  // the answer brings only parts the base may lack; the spec's others are the base's
+  const inSpec = new Set(Object.values(saved.spec.slots).map((f) => f.partId));
+  const parts = new Map([...base.parts, ...saved.parts].map((p) => [p.id, p]));
   return {
     ...rest,
-    findings: saved.findings.map((f) =>
-      withRuleInfo(f, rules[ruleKey(f)] ?? known.get(ruleKey(f))),
-    ),
+    parts: [...parts.values()].filter((p) => inSpec.has(p.id)),
+    findings: saved.findings.map((code) => {
+      const f = decodeFinding(code);
+      return withRuleInfo(f, rules[ruleKey(f)] ?? known.get(ruleKey(f)));
+    }),
   };
 }
 
@@ -122,9 +131,10 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
     inFlight.current = next;
     sawBusy.current = false;
     dataWhenSent.current = fetcher.data;
-    fetcher.submit({ ...next.fields, expectedRevision: String(base.revision) }, { method: "post" });
+    // expectedRevision: the form field that names the working copy's version
+    fetcher.submit({ ...next.fields, expectedRevision: String(base.version) }, { method: "post" });
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [fetcher.state, fetcher.data, queue, conflict, paused, base.revision]);
+  }, [fetcher.state, fetcher.data, queue, conflict, paused, base.version]);
 
   const spec = useMemo(
     () => queue.reduce((s, a) => (a.intent ? applyIntent(s, a.intent) : s), base.spec),
@@ -173,6 +183,10 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
     },
     discardMine() {
       setConflict(null);
+    },
+    /** The open revision was closed with a note: the next edit opens a new one. */
+    revisionClosed(revision: number) {
+      setBase((b) => (b.revision === revision ? { ...b, revisionOpen: false } : b));
     },
   };
 }

@@ -1,6 +1,7 @@
-// Packages and their revisions: reading, creating, and saving bench actions with an
-// optimistic-concurrency check. The server recomputes with calc/, builds the fit-rule
-// snapshot, evaluates the shop's rules and saves one revision per action.
+// Packages and their working copy: reading, creating, and saving bench edits with an
+// optimistic-concurrency check on the working copy's version. The server recomputes with
+// calc/, builds the fit-rule snapshot, evaluates the shop's rules and saves the edit into
+// the working copy and its edit log (revisions: revisions.server.ts).
 import { sql } from "kysely";
 import type { Db } from "../db.server";
 import type { PackageStatus, PowerBasis } from "../../../db/schema/packages";
@@ -24,6 +25,7 @@ import {
   type SpecChange,
 } from "../bench/spec";
 import { buildRuleSnapshot, type PackageSnapshot } from "../fit-rules/snapshot";
+import { closeOpenRevision, writeEdit, writeStart, type EditSaved } from "./revisions-log.server";
 import {
   evaluateRules,
   loadActiveRules,
@@ -149,6 +151,14 @@ export async function slotOptions(db: Db, prices: boolean): Promise<Record<strin
   return out;
 }
 
+/** What an edit saves: the spec, its figures, its rule snapshot and the rule versions that fire. */
+export interface EditEvaluation {
+  spec: BenchSpec;
+  computation: BenchComputation;
+  snapshot: PackageSnapshot;
+  findings: readonly FindingRef[];
+}
+
 export interface Evaluation {
   spec: BenchSpec;
   computation: BenchComputation;
@@ -253,6 +263,8 @@ export interface PackageHeader {
   builderName: string | null;
   notes: string;
   revision: number;
+  /** the working copy's version (what a restore names as its base) */
+  version: number;
   updatedAt: string;
   copiedFromId: number | null;
 }
@@ -277,6 +289,7 @@ function headerQuery(db: Db) {
       "u.name as builder_name",
       "p.notes",
       "p.current_revision",
+      "p.version",
       "p.updated_at",
       "p.copied_from_id",
       "p.power_hp",
@@ -301,6 +314,7 @@ function toHeader(r: HeaderRow): PackageHeader {
     builderName: r.builder_name,
     notes: r.notes,
     revision: r.current_revision,
+    version: r.version,
     updatedAt: new Date(r.updated_at).toISOString(),
     copiedFromId: r.copied_from_id,
   };
@@ -311,14 +325,21 @@ export async function getPackageHeader(db: Db, id: number): Promise<PackageHeade
   return row ? toHeader(row) : null;
 }
 
-/** What the bench and the JSON API show of a package's current revision. */
+/** What the bench and the JSON API show of a package's working copy. */
 export interface BenchState {
   packageId: number;
+  /** the working copy's version: the next edit names it (stale-save token) */
+  version: number;
+  /** the package's latest revision, open (holding the latest edits) or closed */
   revision: number;
+  revisionOpen: boolean;
+  /** how many edits the latest revision holds */
+  revisionEdits: number;
   spec: BenchSpec;
   computation: BenchComputation;
   findings: BenchFinding[];
   parts: BenchPart[];
+  /** who made the latest edit, when, and what it changed */
   savedBy: string | null;
   savedAt: string;
   change: string;
@@ -398,21 +419,33 @@ export async function getBenchState(
 ): Promise<BenchState | null> {
   const row = await db
     .selectFrom("packages as p")
-    .innerJoin("package_revisions as r", (j) =>
+    .leftJoin("package_edits as e", (j) =>
+      j.onRef("e.package_id", "=", "p.id").onRef("e.version", "=", "p.version"),
+    )
+    .leftJoin("package_revisions as r", (j) =>
       j.onRef("r.package_id", "=", "p.id").onRef("r.revision", "=", "p.current_revision"),
     )
-    .leftJoin("users as u", "u.id", "r.saved_by")
-    .select([
+    .leftJoin("users as u", "u.id", "e.user_id")
+    .select((eb) => [
       "p.id",
+      "p.version",
       "p.current_revision",
-      "r.spec",
-      "r.results",
-      "r.findings",
-      "r.change",
-      "r.saved_at",
+      "p.spec",
+      "p.results",
+      "p.findings",
+      "p.updated_at",
+      "e.change",
+      "e.at",
       "u.name as saved_by_name",
+      "r.closed_at",
+      eb
+        .selectFrom("package_edits as x")
+        .select((x) => x.fn.countAll<number>().as("n"))
+        .whereRef("x.package_id", "=", "p.id")
+        .whereRef("x.revision", "=", "p.current_revision")
+        .as("revision_edits"),
     ])
-    .$if(opts.triggeredBy === true, (q) => q.select("r.rule_snapshot"))
+    .$if(opts.triggeredBy === true, (q) => q.select("p.rule_snapshot"))
     .where("p.id", "=", id)
     .executeTakeFirst();
   if (!row) return null;
@@ -424,14 +457,17 @@ export async function getBenchState(
   ]);
   return {
     packageId: row.id,
+    version: row.version,
     revision: row.current_revision,
+    revisionOpen: row.closed_at === null,
+    revisionEdits: Number(row.revision_edits ?? 0),
     spec,
     computation: storedComputation(row.results),
     findings,
     parts: [...parts.values()],
     savedBy: row.saved_by_name,
-    savedAt: new Date(row.saved_at).toISOString(),
-    change: row.change,
+    savedAt: new Date(row.at ?? row.updated_at).toISOString(),
+    change: row.change ?? "",
   };
 }
 
@@ -480,19 +516,7 @@ export async function createPackage(
       })
       .returning("id")
       .executeTakeFirstOrThrow();
-    await trx
-      .insertInto("package_revisions")
-      .values({
-        package_id: id,
-        revision: 1,
-        spec: JSON.stringify(ev.spec),
-        results: JSON.stringify(ev.computation),
-        rule_snapshot: JSON.stringify(ev.snapshot),
-        findings: storedFindings(ev.findings),
-        change: input.change ?? "Package started",
-        saved_by: userId,
-      })
-      .execute();
+    await writeStart(trx, id, userId, input.change ?? "Package started", JSON.stringify(ev.spec));
     await trx
       .insertInto("package_status_changes")
       .values({ package_id: id, from_status: null, to_status: "draft", changed_by: userId })
@@ -504,8 +528,8 @@ export async function createPackage(
 export interface StaleSave {
   ok: false;
   stale: true;
-  currentRevision: number;
-  baseRevision: number;
+  currentVersion: number;
+  baseVersion: number;
   changes: SpecChange[];
   savedBy: string | null;
   savedAt: string;
@@ -513,9 +537,7 @@ export interface StaleSave {
 }
 
 export type SaveOutcome =
-  | { ok: true; revision: number; evaluation: Evaluation }
-  | StaleSave
-  | { ok: false; stale: false; missing: true };
+  ({ ok: true } & EditSaved) | StaleSave | { ok: false; stale: false; missing: true };
 
 export function partLabel(parts: ReadonlyMap<number, BenchPart>) {
   return (id: number) => {
@@ -525,65 +547,63 @@ export function partLabel(parts: ReadonlyMap<number, BenchPart>) {
 }
 
 /**
- * Saves a spec as the next revision, only when the package is still at `expectedRevision`
- * (one conditional update: of two concurrent saves on the same base, one wins).
+ * Saves a spec as the next edit of the working copy, only when it is still at
+ * `expectedVersion` (one conditional update: of two concurrent saves on the same base, one
+ * wins), with one row in the edit log; the edit joins or opens a revision (see writeEdit).
  */
-export async function saveRevision(
+export async function saveEdit(
   db: Db,
   input: {
     packageId: number;
-    expectedRevision: number;
+    expectedVersion: number;
     spec: BenchSpec;
     change: string;
     userId: number;
+    intent?: unknown;
   },
-  evaluation?: Evaluation,
+  evaluation?: EditEvaluation,
 ): Promise<SaveOutcome> {
   const ev = evaluation ?? (await evaluateSpec(db, input.spec));
-  const next = input.expectedRevision + 1;
-  // One statement: the conditional update and the revision insert commit together (or
-  // neither does), in one round trip, and the JSON is sent to the server once. Written as
-  // SQL text: building it with the query builder cost more than running it.
   const sync = syncColumns(ev.spec);
-  const saved = await sql<{ revision: number }>`
-    with u as (
-      update packages
-         set current_revision = ${next}, spec = ${JSON.stringify(ev.spec)}::jsonb, results = ${JSON.stringify(ev.computation)}::jsonb,
-             rule_snapshot = ${JSON.stringify(ev.snapshot)}::jsonb, findings = ${storedFindings(ev.findings)}::jsonb, updated_at = now(),
-             rev_limit_rpm = ${sync.rev_limit_rpm}, power_hp = ${sync.power_hp}, power_basis = ${sync.power_basis}
-       where id = ${input.packageId} and current_revision = ${input.expectedRevision}
-       returning id, current_revision, spec, results, rule_snapshot, findings
-    )
-    insert into package_revisions (package_id, revision, spec, results, rule_snapshot, findings, change, saved_by)
-    select u.id, u.current_revision, u.spec, u.results, u.rule_snapshot, u.findings, ${input.change}::text, ${input.userId}::integer from u
-    returning revision`
-    .execute(db)
-    .then((r) => r.rows.length > 0);
-  if (saved) return { ok: true, revision: next, evaluation: ev };
-  return staleDetails(db, input.packageId, input.expectedRevision);
+  const saved = await writeEdit(db, {
+    packageId: input.packageId,
+    expectedVersion: input.expectedVersion,
+    userId: input.userId,
+    change: input.change,
+    intent: input.intent ?? null,
+    spec: JSON.stringify(ev.spec),
+    results: JSON.stringify(ev.computation),
+    ruleSnapshot: JSON.stringify(ev.snapshot),
+    findings: storedFindings(ev.findings),
+    revLimitRpm: sync.rev_limit_rpm,
+    powerHp: sync.power_hp,
+    powerBasis: sync.power_basis,
+  });
+  if (saved) return { ok: true, ...saved };
+  return staleDetails(db, input.packageId, input.expectedVersion);
 }
 
-/** Why a save on `baseRevision` is stale: what changed since, who saved it and when. */
+/** Why a save on `baseVersion` is stale: what changed since, who made the latest edit and when. */
 export async function staleDetails(
   db: Db,
   packageId: number,
-  baseRevision: number,
+  baseVersion: number,
 ): Promise<SaveOutcome> {
   const current = await db
     .selectFrom("packages as p")
-    .innerJoin("package_revisions as r", (j) =>
-      j.onRef("r.package_id", "=", "p.id").onRef("r.revision", "=", "p.current_revision"),
+    .leftJoin("package_edits as e", (j) =>
+      j.onRef("e.package_id", "=", "p.id").onRef("e.version", "=", "p.version"),
     )
-    .leftJoin("users as u", "u.id", "r.saved_by")
-    .select(["p.current_revision", "r.spec", "r.change", "r.saved_at", "u.name as saved_by_name"])
+    .leftJoin("users as u", "u.id", "e.user_id")
+    .select(["p.version", "p.spec", "e.change", "e.at", "p.updated_at", "u.name as saved_by_name"])
     .where("p.id", "=", packageId)
     .executeTakeFirst();
   if (!current) return { ok: false, stale: false, missing: true };
   const base = await db
-    .selectFrom("package_revisions")
+    .selectFrom("package_edits")
     .select("spec")
     .where("package_id", "=", packageId)
-    .where("revision", "=", baseRevision)
+    .where("version", "=", baseVersion)
     .executeTakeFirst();
   const a = normaliseSpec(base?.spec);
   const b = normaliseSpec(current.spec);
@@ -591,59 +611,12 @@ export async function staleDetails(
   return {
     ok: false,
     stale: true,
-    currentRevision: current.current_revision,
-    baseRevision,
+    currentVersion: current.version,
+    baseVersion,
     changes: diffSpecs(a, b, partLabel(parts)),
     savedBy: current.saved_by_name,
-    savedAt: new Date(current.saved_at).toISOString(),
-    change: current.change,
-  };
-}
-
-export interface RevisionSummary {
-  revision: number;
-  change: string;
-  savedBy: string | null;
-  savedAt: string;
-  findings: number;
-  conflicts: number;
-}
-
-export async function listRevisions(db: Db, packageId: number): Promise<RevisionSummary[]> {
-  const rows = await db
-    .selectFrom("package_revisions as r")
-    .leftJoin("users as u", "u.id", "r.saved_by")
-    .select(["r.revision", "r.change", "r.saved_at", "u.name as saved_by_name", "r.findings"])
-    .where("r.package_id", "=", packageId)
-    .orderBy("r.revision", "desc")
-    .execute();
-  return rows.map((r) => {
-    const f = (r.findings as FindingRef[]) ?? [];
-    return {
-      revision: r.revision,
-      change: r.change,
-      savedBy: r.saved_by_name,
-      savedAt: new Date(r.saved_at).toISOString(),
-      findings: f.length,
-      conflicts: f.filter((x) => x.kind === "conflict").length,
-    };
-  });
-}
-
-export async function getRevision(db: Db, packageId: number, revision: number) {
-  const r = await db
-    .selectFrom("package_revisions")
-    .select(["revision", "spec", "results", "findings", "change", "saved_at"])
-    .where("package_id", "=", packageId)
-    .where("revision", "=", revision)
-    .executeTakeFirst();
-  if (!r) return null;
-  return {
-    revision: r.revision,
-    spec: normaliseSpec(r.spec),
-    computation: storedComputation(r.results),
-    findings: await readFindings(db, r.findings),
-    change: r.change,
+    savedAt: new Date(current.at ?? current.updated_at).toISOString(),
+    change: current.change ?? "",
   };
 }
 
@@ -663,52 +636,6 @@ export const RESULT_ROWS: {
   { key: "rodRatio", label: "Rod ratio", unit: "", digits: 3 },
   { key: "boreStrokeRatio", label: "Bore/stroke", unit: "", digits: 3 },
 ];
-
-/** Two revisions side by side: the spec changes and each result that differs. */
-export async function compareRevisions(db: Db, packageId: number, a: number, b: number) {
-  const [ra, rb] = await Promise.all([
-    getRevision(db, packageId, a),
-    getRevision(db, packageId, b),
-  ]);
-  if (!ra || !rb) return null;
-  const parts = await loadParts(db, [...partIds(ra.spec), ...partIds(rb.spec)], false);
-  const fmt = (v: number | null, d: number) => (v === null ? "—" : v.toFixed(d));
-  const results = RESULT_ROWS.map((row) => ({
-    key: row.key,
-    label: `${row.label}${row.unit ? ` (${row.unit})` : ""}`,
-    before: fmt(ra.computation.results[row.key], row.digits),
-    after: fmt(rb.computation.results[row.key], row.digits),
-  })).filter((r) => r.before !== r.after);
-  const names = (f: BenchFinding[]) => new Set(f.map((x) => x.ruleName));
-  const fa = names(ra.findings);
-  const fb = names(rb.findings);
-  return {
-    a: ra,
-    b: rb,
-    specChanges: diffSpecs(ra.spec, rb.spec, partLabel(parts)),
-    resultChanges: results,
-    findingsAdded: [...fb].filter((n) => !fa.has(n)),
-    findingsGone: [...fa].filter((n) => !fb.has(n)),
-  };
-}
-
-export async function restoreRevision(
-  db: Db,
-  packageId: number,
-  revision: number,
-  expectedRevision: number,
-  userId: number,
-): Promise<SaveOutcome | null> {
-  const r = await getRevision(db, packageId, revision);
-  if (!r) return null;
-  return saveRevision(db, {
-    packageId,
-    expectedRevision,
-    spec: r.spec,
-    change: `Restored revision ${revision}`,
-    userId,
-  });
-}
 
 export async function changeStatus(
   db: Db,
@@ -744,6 +671,8 @@ export async function changeStatus(
       .insertInto("package_status_changes")
       .values({ package_id: packageId, from_status: row.status, to_status: to, changed_by: userId })
       .execute();
+    // a revision never spans a status change
+    await closeOpenRevision(trx, packageId, "status", userId);
     return { ok: true };
   });
 }
