@@ -191,6 +191,7 @@ const EMPTY_RESULTS: SpecResults = {
   quenchMm: null,
   rodRatio: null,
   boreStrokeRatio: null,
+  bmepKPa: null,
 };
 
 export interface BenchComputation {
