@@ -200,6 +200,7 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
       findings: ev.findings.map(toFindingRef),
       rules: newRules,
       parts: [...ev.parts.values()],
+      limits: ev.limits,
       savedBy: user.name,
       savedAt: new Date().toISOString(),
       change,

@@ -11,6 +11,7 @@ import {
   type Step,
 } from "../../../calc";
 import { SLOTS, SLOT_BY_KEY } from "../packages/slots";
+import type { CalcLimits } from "../settings/limits";
 import type { PackageStatus } from "../../../db/schema/packages";
 
 export type PowerBasis = "target" | "estimate" | "measured";
@@ -168,12 +169,17 @@ export function resolveFields(spec: BenchSpec, parts: ReadonlyMap<number, BenchP
   return out;
 }
 
-export function toCalcInput(spec: BenchSpec, resolved: Resolved): SpecInput {
+/** calc's input for a spec; `limits` are the shop's caution limits (calc's defaults without). */
+export function toCalcInput(spec: BenchSpec, resolved: Resolved, limits?: CalcLimits): SpecInput {
   const input: SpecInput = {
     cylinders: spec.cylinders,
     deckClearanceMm: spec.deckClearanceMm,
     revLimitRpm: spec.revLimitRpm,
   };
+  if (limits) {
+    input.thresholds = limits.thresholds;
+    input.fuelGrade = limits.fuelGrade;
+  }
   for (const f of MEASURED_FIELDS) input[f] = resolved[f].value;
   return input;
 }

@@ -24,6 +24,8 @@ import {
   type SpecChange,
 } from "../bench/spec";
 import { buildRuleSnapshot, type PackageSnapshot } from "../fit-rules/snapshot";
+import type { CalcLimits } from "../settings/limits";
+import { getCalcLimits } from "../settings/limits.server";
 import {
   evaluateRules,
   loadActiveRules,
@@ -153,6 +155,8 @@ export interface Evaluation {
   snapshot: PackageSnapshot;
   findings: Finding[];
   parts: Map<number, BenchPart>;
+  /** The shop's caution limits the computation used. */
+  limits: CalcLimits;
 }
 
 export function partIds(spec: BenchSpec): number[] {
@@ -225,17 +229,18 @@ export async function evaluateSpec(
 ): Promise<Evaluation> {
   const spec = normaliseSpec(raw);
   const ids = partIds(spec);
-  const [loaded, rules] = await Promise.all([
+  const [loaded, rules, limits] = await Promise.all([
     known ? undefined : loadParts(db, ids, prices),
     activeRules ?? loadActiveRules(db),
+    getCalcLimits(db),
   ]);
   const parts =
     loaded ??
     new Map(ids.flatMap((id) => (known!.has(id) ? [[id, known!.get(id)!] as const] : [])));
-  const computation = computeBench(toCalcInput(spec, resolveFields(spec, parts)));
+  const computation = computeBench(toCalcInput(spec, resolveFields(spec, parts), limits));
   const snapshot = snapshotFor(spec, parts, computation);
   const findings = await evaluateRules(snapshot, rules);
-  return { spec, computation, snapshot, findings, parts };
+  return { spec, computation, snapshot, findings, parts, limits };
 }
 
 export interface PackageHeader {
@@ -317,6 +322,8 @@ export interface BenchState {
   computation: BenchComputation;
   findings: BenchFinding[];
   parts: BenchPart[];
+  /** The shop's caution limits, for the browser's figures before the server answers. */
+  limits: CalcLimits;
   savedBy: string | null;
   savedAt: string;
   change: string;
@@ -416,17 +423,25 @@ export async function getBenchState(
   if (!row) return null;
   const spec = normaliseSpec(row.spec);
   const snapshot = "rule_snapshot" in row ? (row.rule_snapshot as PackageSnapshot) : undefined;
-  const [parts, findings] = await Promise.all([
+  const [parts, findings, limits] = await Promise.all([
     loadParts(db, partIds(spec), prices),
     readFindings(db, row.findings, snapshot),
+    getCalcLimits(db),
   ]);
+  // the figures are stored; the cautions follow the shop's limits of today
+  const stored = storedComputation(row.results);
+  const computation = {
+    ...stored,
+    cautions: computeBench(toCalcInput(spec, resolveFields(spec, parts), limits)).cautions,
+  };
   return {
     packageId: row.id,
     revision: row.current_revision,
     spec,
-    computation: storedComputation(row.results),
+    computation,
     findings,
     parts: [...parts.values()],
+    limits,
     savedBy: row.saved_by_name,
     savedAt: new Date(row.saved_at).toISOString(),
     change: row.change,
