@@ -153,6 +153,35 @@ describe("computeSpec on a full package", () => {
     );
   });
 
+  it("converts the card's closing to the limits' lift basis, and shows it in the work", () => {
+    // derived: closing 35° + 15° is the same package with a 50° card
+    const conv = ok(
+      computeSpec({
+        ...full,
+        intakeClosesAddDeg: 15,
+        intakeClosesBasis: "seat timing: card + 15°",
+      }),
+    );
+    const plain = ok(computeSpec({ ...full, intakeClosesAbdcDeg: 50 }));
+    expect(conv.results.dynamicCr).toBe(plain.results.dynamicCr);
+    expect(conv.results.dcrClosingDeg).toBe(50);
+    expect(conv.steps.find((x) => x.id === "pistonAtIvc")?.substituted).toBe(
+      "a = 57.15 mm, l = 190.5 mm, θ = 180° + 35° + 15° = 230° (seat timing: card + 15°)",
+    );
+    expect(conv.cautions.find((c) => c.code === "DYNAMIC_CR_HIGH")?.message).toContain(
+      "(closing on seat timing: card + 15°)",
+    );
+    const bad = computeSpec({ ...full, intakeClosesAbdcDeg: 170, intakeClosesAddDeg: 15 });
+    expect(bad.ok).toBe(false);
+    if (!bad.ok)
+      expect(bad.errors).toEqual([
+        {
+          field: "intakeClosesAddDeg",
+          message: "puts the intake closing outside 0 to 180 degrees after BDC",
+        },
+      ]);
+  });
+
   it("refuses a fuel grade name that is not short plain text", () => {
     const r = computeSpec({ ...full, fuelGrade: "pump\u000091" });
     expect(r.ok).toBe(false);

@@ -44,6 +44,8 @@ export interface SpecResults {
   rodRatio: number | null;
   /** Bore / stroke. */
   boreStrokeRatio: number | null;
+  /** Intake closing the dynamic ratio used, ° after BDC: the card's plus the basis conversion. */
+  dcrClosingDeg: number | null;
   /** Brake mean effective pressure the torque figure implies, kPa (four-stroke). */
   bmepKPa: number | null;
 }
@@ -65,6 +67,7 @@ export const RESULT_INPUTS: { readonly [K in ResultKey]: readonly SpecField[] } 
   peakPistonSpeedMs: ["strokeMm", "rodLengthMm", "revLimitRpm"],
   peakPistonSpeedCrankDeg: ["strokeMm", "rodLengthMm"],
   bmepKPa: ["boreMm", "strokeMm", "cylinders", "torqueNm"],
+  dcrClosingDeg: ["intakeClosesAbdcDeg"],
 };
 
 export type CautionCode =
@@ -195,6 +198,7 @@ function cautionsFor(
   t: Thresholds,
   rpm: number | null,
   grade: string | null,
+  basis: string | null,
 ): Caution[] {
   const out: Caution[] = [];
   if (r.staticCr !== null && r.staticCr > t.staticCrMax) {
@@ -214,6 +218,7 @@ function cautionsFor(
   }
   if (r.dynamicCr !== null && r.dynamicCr > t.dynamicCrMax) {
     const fuel = grade === null ? "pump fuel" : grade;
+    const on = basis === null ? "" : ` (closing on ${basis})`;
     out.push(
       caution(
         "DYNAMIC_CR_HIGH",
@@ -221,7 +226,7 @@ function cautionsFor(
         r.dynamicCr,
         "dynamicCrMax",
         t.dynamicCrMax,
-        `Dynamic compression ${fmt(r.dynamicCr, 4)}:1 is above ${fmt(t.dynamicCrMax, 4)}:1, the limit set for ${fuel}, ` +
+        `Dynamic compression ${fmt(r.dynamicCr, 4)}:1${on} is above ${fmt(t.dynamicCrMax, 4)}:1, the limit set for ${fuel}, ` +
           `${byText(r.dynamicCr - t.dynamicCrMax, ":1")}. ` +
           "Check the intake closing figure against the cam card and its lift, and " +
           "confirm with the cam and piston makers' limits and your tuner.",
@@ -399,7 +404,7 @@ function compute(input: SpecInput, withSteps: boolean): SpecOutcome {
     l !== null &&
     s.intakeClosesAbdcDeg !== null
   ) {
-    const above = heightAboveBdcRaw(L / 2, l, s.intakeClosesAbdcDeg);
+    const above = heightAboveBdcRaw(L / 2, l, s.intakeClosesAbdcDeg + s.intakeClosesAddDeg);
     yIvc = L - above;
     dcr = (swept + vc - cylinderCcRaw(B, above)) / vc;
     if (!Number.isFinite(dcr)) return outOfRange("rodLengthMm");
@@ -454,12 +459,14 @@ function compute(input: SpecInput, withSteps: boolean): SpecOutcome {
     rodRatio: rr,
     boreStrokeRatio: bs,
     bmepKPa: bmep,
+    dcrClosingDeg:
+      s.intakeClosesAbdcDeg === null ? null : s.intakeClosesAbdcDeg + s.intakeClosesAddDeg,
   };
   const work: Work = { s, r: results, gasketCc, deckCc, yIvc, omega };
   return {
     ok: true,
     results,
-    cautions: cautionsFor(results, s.thresholds, rpm, s.fuelGrade),
+    cautions: cautionsFor(results, s.thresholds, rpm, s.fuelGrade, s.intakeClosesBasis),
     steps: withSteps ? buildSteps(work) : [],
     missing: v.missing,
   };
@@ -612,7 +619,10 @@ function buildSteps(w: Work): Step[] {
         id: "pistonAtIvc",
         label: "Piston below TDC when the intake closes",
         formula: Y_FORMULA,
-        substituted: `a = ${fa} mm, l = ${fl} mm, θ = 180° + ${fin(s.intakeClosesAbdcDeg)}° = ${fin(180 + s.intakeClosesAbdcDeg)}°`,
+        substituted:
+          s.intakeClosesAddDeg === 0 && s.intakeClosesBasis === null
+            ? `a = ${fa} mm, l = ${fl} mm, θ = 180° + ${fin(s.intakeClosesAbdcDeg)}° = ${fin(180 + s.intakeClosesAbdcDeg)}°`
+            : `a = ${fa} mm, l = ${fl} mm, θ = 180° + ${fin(s.intakeClosesAbdcDeg)}° ${s.intakeClosesAddDeg < 0 ? "−" : "+"} ${fin(Math.abs(s.intakeClosesAddDeg))}° = ${fin(180 + s.intakeClosesAbdcDeg + s.intakeClosesAddDeg)}° (${s.intakeClosesBasis ?? "card closing plus the shop's conversion"})`,
         result: w.yIvc,
         unit: "mm",
       },

@@ -52,6 +52,13 @@ export interface SpecInput {
   intakeClosesAbdcDeg?: number | null | undefined;
   /** Rev limit, rpm. */
   revLimitRpm?: number | null | undefined;
+  /**
+   * Degrees added to the card's intake closing to reach the basis the dynamic-compression
+   * limit is on (e.g. +15° from a 0.050 in checking-lift angle to seat timing); default 0.
+   */
+  intakeClosesAddDeg?: number | null | undefined;
+  /** What that basis and conversion are, for the worked step and the caution. */
+  intakeClosesBasis?: string | null | undefined;
   /** Torque target or estimate, N·m (optional: it gives the BMEP the target implies). */
   torqueNm?: number | null | undefined;
   /** Limits for the cautions; missing keys take DEFAULT_THRESHOLDS. */
@@ -74,6 +81,8 @@ export interface CheckedSpec {
   intakeClosesAbdcDeg: number | null;
   revLimitRpm: number | null;
   torqueNm: number | null;
+  intakeClosesAddDeg: number;
+  intakeClosesBasis: string | null;
   thresholds: Thresholds;
   fuelGrade: string | null;
 }
@@ -317,6 +326,37 @@ export function validateSpec(
     }
   }
 
+  let intakeClosesAddDeg = 0;
+  const rawAdd = src.intakeClosesAddDeg;
+  if (rawAdd !== undefined && rawAdd !== null) {
+    if (typeof rawAdd === "number" && Number.isFinite(rawAdd) && Math.abs(rawAdd) <= 60) {
+      intakeClosesAddDeg = rawAdd;
+      if (
+        intakeClosesAbdcDeg !== null &&
+        !(intakeClosesAbdcDeg + rawAdd >= 0 && intakeClosesAbdcDeg + rawAdd < 180)
+      ) {
+        errors.push({
+          field: "intakeClosesAddDeg",
+          message: "puts the intake closing outside 0 to 180 degrees after BDC",
+        });
+      }
+    } else {
+      errors.push({
+        field: "intakeClosesAddDeg",
+        message: "must be a number of degrees between −60 and 60",
+      });
+    }
+  }
+  let intakeClosesBasis: string | null = null;
+  const rawBasis = src.intakeClosesBasis;
+  if (rawBasis !== undefined && rawBasis !== null) {
+    if (typeof rawBasis === "string" && rawBasis.length <= 200 && !hasControl(rawBasis)) {
+      intakeClosesBasis = rawBasis;
+    } else {
+      errors.push({ field: "intakeClosesBasis", message: "must be text of up to 200 characters" });
+    }
+  }
+
   let cylinders = DEFAULT_CYLINDERS;
   const rawCyl = get === null ? src.cylinders : get("cylinders");
   if (rawCyl !== undefined && rawCyl !== null) {
@@ -342,6 +382,8 @@ export function validateSpec(
     intakeClosesAbdcDeg,
     revLimitRpm,
     torqueNm,
+    intakeClosesAddDeg,
+    intakeClosesBasis,
     thresholds,
     fuelGrade,
   };

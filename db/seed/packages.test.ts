@@ -43,7 +43,7 @@ function computed(d: (typeof DEMO_PACKAGES)[number]) {
   const stockStroke = parts.get(spec.slots.flywheel!.partId!)!.stock;
   return {
     stockStroke,
-    out: computeBench(toCalcInput(spec, resolveFields(spec, parts), DEFAULT_CALC_LIMITS)),
+    out: computeBench(toCalcInput(spec, resolveFields(spec, parts), DEFAULT_CALC_LIMITS, parts)),
   };
 }
 
@@ -79,5 +79,23 @@ describe("demo packages", () => {
         computed(d).out.cautions.map((c) => c.code),
         d.name,
       ).toContain("MEAN_PISTON_SPEED_HIGH");
+  });
+});
+
+describe("demo dynamic compression on the shop's lift basis", () => {
+  it("converts the cards' 0.053 in closing to seat timing, and cautions only the big builds", () => {
+    for (const d of DEMO_PACKAGES) {
+      const { stockStroke, out } = computed(d);
+      const dcr = out.cautions.find((c) => c.code === "DYNAMIC_CR_HIGH");
+      if (stockStroke) expect(dcr, d.name).toBeUndefined();
+      else {
+        // default: pump 93 (9.2:1) on seat timing, card angle + 15° (from memory)
+        expect(dcr?.limit, d.name).toBe(9.2);
+        expect(dcr?.message, d.name).toContain(
+          "(closing on seat timing: the card's closing at 1.346 mm (0.053 in) + 15°)",
+        );
+        expect(dcr?.message, d.name).toContain("the limit set for pump 93");
+      }
+    }
   });
 });

@@ -79,6 +79,9 @@ beforeAll(async () => {
   await addPart("head", "heads", { chamberCc: 89 });
   await addPart("hg", "head_gaskets", { boreMm: 102.1, compressedThicknessMm: 1.02 });
   await addPart("cam", "cams", { intakeClosesAbdcDeg: 32, intakeLiftMm: 14.8 });
+  // the same cam, carded at 0.050 in and in seat timing (0.3 mm)
+  await addPart("cam050", "cams", { intakeClosesAbdcDeg: 32, timingAtLiftMm: 1.27 });
+  await addPart("camseat", "cams", { intakeClosesAbdcDeg: 47, timingAtLiftMm: 0.3 });
   await addPart("rod", "rods", { lengthMm: 189 });
 });
 
@@ -140,6 +143,21 @@ describe("the caution limits page", () => {
       ],
     });
     expect(await db.selectFrom("caution_limits").select("key").execute()).toEqual([]);
+  });
+});
+
+describe("the dynamic ratio on the shop's lift basis", () => {
+  it("compares two cards at different lifts on one basis", async () => {
+    const withCam = (key: string) => {
+      const s = spec();
+      s.slots.cam = { partId: part[key]!, measured: {} };
+      return evaluateSpec(db, s);
+    };
+    const [checking, seat] = await Promise.all([withCam("cam050"), withCam("camseat")]);
+    // default: seat timing, a checking-lift closing + 15° (from memory): 32° + 15° = 47° = the seat card
+    expect(checking.computation.results.dcrClosingDeg).toBe(47);
+    expect(seat.computation.results.dcrClosingDeg).toBe(47);
+    expect(checking.computation.results.dynamicCr).toBe(seat.computation.results.dynamicCr);
   });
 });
 

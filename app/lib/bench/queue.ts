@@ -128,7 +128,7 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
     () =>
       queue.length === 0
         ? base.computation
-        : computeBench(toCalcInput(spec, resolveFields(spec, parts), base.limits)),
+        : computeBench(toCalcInput(spec, resolveFields(spec, parts), base.limits, parts)),
     [queue.length, base.computation, spec, parts, base.limits],
   );
 

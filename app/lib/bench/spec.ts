@@ -11,7 +11,7 @@ import {
   type Step,
 } from "../../../calc";
 import { SLOTS, SLOT_BY_KEY } from "../packages/slots";
-import type { CalcLimits } from "../settings/limits";
+import { closingConversion, type CalcLimits } from "../settings/limits";
 import type { PackageStatus } from "../../../db/schema/packages";
 
 export type PowerBasis = "target" | "estimate" | "measured";
@@ -169,8 +169,17 @@ export function resolveFields(spec: BenchSpec, parts: ReadonlyMap<number, BenchP
   return out;
 }
 
-/** calc's input for a spec; `limits` are the shop's caution limits (calc's defaults without). */
-export function toCalcInput(spec: BenchSpec, resolved: Resolved, limits?: CalcLimits): SpecInput {
+/**
+ * calc's input for a spec. `limits` are the shop's caution limits (calc's defaults
+ * without); with the spec's `parts` as well, the cam card's closing is converted to the
+ * limits' lift basis (the card's `timingAtLiftMm`).
+ */
+export function toCalcInput(
+  spec: BenchSpec,
+  resolved: Resolved,
+  limits?: CalcLimits,
+  parts?: ReadonlyMap<number, BenchPart>,
+): SpecInput {
   const input: SpecInput = {
     cylinders: spec.cylinders,
     deckClearanceMm: spec.deckClearanceMm,
@@ -179,6 +188,13 @@ export function toCalcInput(spec: BenchSpec, resolved: Resolved, limits?: CalcLi
   if (limits) {
     input.thresholds = limits.thresholds;
     input.fuelGrade = limits.fuelGrade;
+    if (parts && resolved.intakeClosesAbdcDeg.value !== null) {
+      const camId = spec.slots.cam?.partId;
+      const cam = camId != null ? parts.get(camId) : undefined;
+      const conv = closingConversion(limits, attrNumber(cam, "timingAtLiftMm"));
+      input.intakeClosesAddDeg = conv.addDeg;
+      input.intakeClosesBasis = conv.basis;
+    }
   }
   for (const f of MEASURED_FIELDS) input[f] = resolved[f].value;
   return input;
@@ -198,6 +214,7 @@ const EMPTY_RESULTS: SpecResults = {
   rodRatio: null,
   boreStrokeRatio: null,
   bmepKPa: null,
+  dcrClosingDeg: null,
 };
 
 export interface BenchComputation {

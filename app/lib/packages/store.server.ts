@@ -237,7 +237,7 @@ export async function evaluateSpec(
   const parts =
     loaded ??
     new Map(ids.flatMap((id) => (known!.has(id) ? [[id, known!.get(id)!] as const] : [])));
-  const computation = computeBench(toCalcInput(spec, resolveFields(spec, parts), limits));
+  const computation = computeBench(toCalcInput(spec, resolveFields(spec, parts), limits, parts));
   const snapshot = snapshotFor(spec, parts, computation);
   const findings = await evaluateRules(snapshot, rules);
   return { spec, computation, snapshot, findings, parts, limits };
@@ -428,12 +428,9 @@ export async function getBenchState(
     readFindings(db, row.findings, snapshot),
     getCalcLimits(db),
   ]);
-  // the figures are stored; the cautions follow the shop's limits of today
-  const stored = storedComputation(row.results);
-  const computation = {
-    ...stored,
-    cautions: computeBench(toCalcInput(spec, resolveFields(spec, parts), limits)).cautions,
-  };
+  // computed again (a few microseconds): the cautions and the dynamic ratio's lift basis
+  // follow the shop's limits of today, which may have changed since the save
+  const computation = computeBench(toCalcInput(spec, resolveFields(spec, parts), limits, parts));
   return {
     packageId: row.id,
     revision: row.current_revision,

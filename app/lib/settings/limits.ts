@@ -183,6 +183,9 @@ export function benchGradeOf(l: ShopLimits): { name: string; dcrMax: number } {
 export interface CalcLimits {
   thresholds: ThresholdInput;
   fuelGrade: string;
+  dcrBasis: DcrBasis;
+  dcrAddDeg: number;
+  dcrCheckingLiftMm: number;
 }
 
 export function calcLimitsOf(l: ShopLimits): CalcLimits {
@@ -203,6 +206,51 @@ export function calcLimitsOf(l: ShopLimits): CalcLimits {
       pistonToValveExhaustMinMm: l.pistonToValveExhaustMinMm,
     },
     fuelGrade: grade.name,
+    dcrBasis: l.dcrBasis,
+    dcrAddDeg: l.dcrAddDeg,
+    dcrCheckingLiftMm: l.dcrCheckingLiftMm,
+  };
+}
+
+/** Cards timed at or below this lift state seat timing (common practice: 0.004–0.020 in). */
+export const SEAT_TIMING_MAX_MM = 0.51;
+
+const liftText = (mm: number) =>
+  `${Math.round(mm * 1000) / 1000} mm (${Math.round((mm / 25.4) * 1000) / 1000} in)`;
+
+/**
+ * How a cam card's intake closing converts to the basis the shop's dynamic-compression
+ * limits are on: the degrees to add and the words that say so. A card at a checking lift
+ * gets the shop's degrees; a card in seat timing is used as it is. Two cams whose cards
+ * state different lifts are so compared on the one basis.
+ */
+export function closingConversion(
+  l: CalcLimits,
+  cardLiftMm: number | null,
+): { addDeg: number; basis: string } {
+  if (cardLiftMm !== null && cardLiftMm <= SEAT_TIMING_MAX_MM)
+    return {
+      addDeg: 0,
+      basis:
+        l.dcrBasis === "seat"
+          ? `seat timing, as the card states it at ${liftText(cardLiftMm)}`
+          : `the card's seat timing at ${liftText(cardLiftMm)}, used as it is`,
+    };
+  const at =
+    cardLiftMm === null
+      ? "the card's closing (its lift not stated, taken as the checking lift)"
+      : `the card's closing at ${liftText(cardLiftMm)}`;
+  const off =
+    cardLiftMm !== null && Math.abs(cardLiftMm - l.dcrCheckingLiftMm) > 0.1
+      ? `; the shop's conversion is for ${liftText(l.dcrCheckingLiftMm)}`
+      : "";
+  const deg = `${l.dcrAddDeg}°`;
+  return {
+    addDeg: l.dcrAddDeg,
+    basis:
+      l.dcrBasis === "seat"
+        ? `seat timing: ${at} + ${deg}${off}`
+        : `the checking-lift angle + ${deg}: ${at} + ${deg}${off}`,
   };
 }
 
