@@ -10,7 +10,9 @@ import { requirePermission } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
 import {
   BASIS_LABELS,
+  DEFAULT_LIMITS,
   GRADE_SLOTS,
+  type GradeSlot,
   LIMIT_DEFS,
   type LimitDef,
   type ShopLimits,
@@ -60,7 +62,7 @@ const GROUPS: LimitDef["group"][] = [
 ];
 
 function unitText(d: LimitDef): string {
-  return d.unit === "" ? "" : d.unit === ":1" ? ":1" : ` ${d.unit}`;
+  return d.unit === "" ? "" : d.unit === ":1" || d.unit === "°" ? d.unit : ` ${d.unit}`;
 }
 
 export default function CautionLimits({ loaderData, actionData }: Route.ComponentProps) {
@@ -174,7 +176,7 @@ export default function CautionLimits({ loaderData, actionData }: Route.Componen
 function LimitHint({ def, state }: { def: LimitDef; state: LimitState | undefined }) {
   const shown =
     def.kind === "grade"
-      ? `fuel grade ${GRADE_SLOTS.indexOf(def.default as never) + 1}`
+      ? `fuel grade ${GRADE_SLOTS.indexOf(def.default as never) + 1} (${DEFAULT_LIMITS[`${def.default as GradeSlot}Name`]})`
       : def.kind === "basis"
         ? BASIS_LABELS[def.default as "seat" | "checking"].toLowerCase()
         : `${def.default}${unitText(def)}`;
