@@ -5,7 +5,10 @@ import {
   KW_TORQUE_CONSTANT,
   SAE_J1349_REFERENCE,
   SAE_J1349_REVISION,
+  bmepKPa,
   dryAirPressureKPa,
+  hpPerCi,
+  torqueFromBmepNm,
   hpToKw,
   lbFtToNm,
   powerHp,
@@ -98,5 +101,40 @@ describe("water vapour and dry air", () => {
     expect(() => dryAirPressureKPa(100, 20, -1)).toThrow(/relHumidityPct/);
     expect(() => dryAirPressureKPa(-1, 20, 50)).toThrow(/baroKPa/);
     expect(() => dryAirPressureKPa(1, 40, 100)).toThrow(/vapour pressure/);
+  });
+});
+
+describe("torque and brake mean effective pressure (four-stroke)", () => {
+  // Heywood, Internal Combustion Engine Fundamentals, McGraw-Hill 1988, §2.7: bmep = 2π·n_R·T/V_d,
+  // n_R = 2 for a four-stroke (equation number 2.19 from memory; REFERENCES.md does not list it).
+  it("hand-worked: 150 N·m from 1811 cc is a bmep of 1040.84 kPa", () => {
+    // derived: 4π × 150 ÷ 1.811 L = 1040.837 kPa; tolerance 0.001 kPa
+    expect(Math.abs(bmepKPa(150, 1811) - 1040.837)).toBeLessThan(0.001);
+  });
+
+  it("hand-worked: 1000 kPa in 1811 cc gives 144.115 N·m", () => {
+    // derived: 1000 × 1.811 ÷ 4π = 144.1148 N·m; tolerance 0.0001 N·m
+    expect(Math.abs(torqueFromBmepNm(1000, 1811) - 144.1148)).toBeLessThan(0.0001);
+  });
+
+  it("the two are inverses", () => {
+    for (const [t, v] of [
+      [100, 1000],
+      [180, 2100],
+      [1, 50],
+    ] as const) {
+      expect(torqueFromBmepNm(bmepKPa(t, v), v)).toBeCloseTo(t, 10);
+    }
+  });
+
+  it("hp per cubic inch", () => {
+    // derived: 120 hp ÷ 117 ci
+    expect(hpPerCi(120, 117)).toBeCloseTo(1.025641, 6);
+    expect(() => hpPerCi(120, 0)).toThrow(CalcInputError);
+  });
+
+  it("refuses a displacement of zero", () => {
+    expect(() => bmepKPa(100, 0)).toThrow(/displacementCc/);
+    expect(() => torqueFromBmepNm(Number.NaN, 1000)).toThrow(/bmepKPa/);
   });
 });

@@ -84,3 +84,31 @@ export function dryAirPressureKPa(baroKPa: number, tempC: number, relHumidityPct
   }
   return pd;
 }
+
+/** 4π: Heywood's 2π·n_R with n_R = 2 crank revolutions per power stroke (four-stroke). */
+const FOUR_STROKE_2PI_NR = 4 * Math.PI;
+
+/**
+ * Brake torque, N·m, from brake mean effective pressure (kPa) and engine displacement
+ * (cc), for a four-stroke: T = bmep·V_d/(2π·n_R), n_R = 2 (Heywood, Internal Combustion
+ * Engine Fundamentals, McGraw-Hill 1988, §2.7). kPa × litres = J, so V_d in cc / 1000.
+ */
+export function torqueFromBmepNm(bmepKPa: number, displacementCc: number): number {
+  requireFinite(bmepKPa, "bmepKPa");
+  requirePositive(displacementCc, "displacementCc");
+  return (bmepKPa * (displacementCc / 1000)) / FOUR_STROKE_2PI_NR;
+}
+
+/** Brake mean effective pressure, kPa, from torque (N·m) and displacement (cc): bmep = 4π·T/V_d. */
+export function bmepKPa(torqueNm: number, displacementCc: number): number {
+  requireFinite(torqueNm, "torqueNm");
+  requirePositive(displacementCc, "displacementCc");
+  return (FOUR_STROKE_2PI_NR * torqueNm) / (displacementCc / 1000);
+}
+
+/** Power per cubic inch, hp/ci. */
+export function hpPerCi(hp: number, displacementCi: number): number {
+  requireFinite(hp, "hp");
+  requirePositive(displacementCi, "displacementCi");
+  return hp / displacementCi;
+}

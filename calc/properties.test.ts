@@ -321,8 +321,8 @@ describe("properties", () => {
 
   it("computeSpec succeeds on every physical package", () => {
     fc.assert(
-      fc.property(dynamicSpec, num(1000, 10000), (s, rpm) => {
-        const r = computeSpec({ ...s, revLimitRpm: rpm });
+      fc.property(dynamicSpec, num(1000, 10000), num(1, 500), (s, rpm, torqueNm) => {
+        const r = computeSpec({ ...s, revLimitRpm: rpm, torqueNm });
         expect(r.ok).toBe(true);
         if (r.ok)
           expect(Object.values(r.results).every((v) => v !== null && Number.isFinite(v))).toBe(

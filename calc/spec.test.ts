@@ -94,21 +94,101 @@ describe("computeSpec on a full package", () => {
   });
 
   it("cautions on compression and piston speed past the defaults, deferring to the makers", () => {
-    const codes = r.cautions.map((c) => c.code);
-    expect(codes).toEqual([
+    expect(r.cautions.map((c) => c.code)).toEqual(["STATIC_CR_HIGH", "DYNAMIC_CR_HIGH"]);
+    // 114.3 mm at 5800 rpm is 22.1 m/s mean, within the 22.9 m/s default; at 6400 rpm it is 24.384 m/s
+    const fast = ok(computeSpec({ ...full, revLimitRpm: 6400 }));
+    expect(fast.cautions.map((c) => c.code)).toEqual([
       "STATIC_CR_HIGH",
       "DYNAMIC_CR_HIGH",
       "MEAN_PISTON_SPEED_HIGH",
       "PEAK_PISTON_SPEED_HIGH",
     ]);
-    for (const c of r.cautions) {
+    for (const c of [...r.cautions, ...fast.cautions]) {
       expect(c.severity).toBe("caution");
       expect(c.value).toBeGreaterThan(c.limit);
       expect(c.message).toMatch(/maker/);
-      expect(r.results[c.field]).toBe(c.value);
+      expect(c.by).toBeCloseTo(c.value - c.limit, 12);
+      expect((fast.cautions.includes(c) ? fast : r).results[c.field]).toBe(c.value);
     }
     expect(r.cautions[0]?.message).toMatch(/pump fuel/);
     expect(r.cautions[0]?.message).toMatch(/tuner/);
+  });
+
+  it("each caution names the limit it crossed and by how much", () => {
+    const fast = ok(computeSpec({ ...full, revLimitRpm: 6400 }));
+    const mean = fast.cautions.find((c) => c.code === "MEAN_PISTON_SPEED_HIGH");
+    // derived: 2 × 0.1143 m × 6400 rpm ÷ 60 = 24.384 m/s, 1.484 m/s over 22.9 m/s
+    expect(mean?.limitKey).toBe("meanPistonSpeedMaxMs");
+    expect(mean?.by).toBeCloseTo(1.484, 10);
+    expect(mean?.message).toBe(
+      "Mean piston speed at 6400 rpm is 24.38 m/s (4800 ft/min), above the limit of 22.9 m/s by 1.48 m/s. " +
+        "Confirm the rev limit with the piston, rod and crank makers' ratings.",
+    );
+    const graded = ok(
+      computeSpec({ ...full, fuelGrade: "pump 93", thresholds: { dynamicCrMax: 9 } }),
+    );
+    const dcr = graded.cautions.find((c) => c.code === "DYNAMIC_CR_HIGH");
+    expect(dcr?.limitKey).toBe("dynamicCrMax");
+    expect(dcr?.by).toBeCloseTo((graded.results.dynamicCr ?? 0) - 9, 12);
+    expect(dcr?.message).toMatch(
+      /^Dynamic compression [\d.]+:1 is above 9:1, the limit set for pump 93, by [\d.]+\. /,
+    );
+  });
+
+  it("cautions on a short rod and a torque figure past the shop's BMEP ceiling", () => {
+    // derived: 160 mm rod / 114.3 mm stroke = 1.39983, 0.10017 under the 1.5 default
+    const short = ok(computeSpec({ ...full, rodLengthMm: 160 }));
+    const rod = short.cautions.find((c) => c.code === "ROD_RATIO_LOW");
+    expect(rod?.limit).toBe(1.5);
+    expect(rod?.by).toBeCloseTo(1.5 - 160 / 114.3, 12);
+    // derived (Heywood 1988 §2.7, n_R = 2): 4π × 190 N·m ÷ 1.85333 L = 1288.3 kPa
+    const strong = ok(computeSpec({ ...full, torqueNm: 190 }));
+    expect(strong.results.bmepKPa).toBeCloseTo((4 * Math.PI * 190) / 1.853333, 2);
+    const bmep = strong.cautions.find((c) => c.code === "BMEP_HIGH");
+    expect(bmep?.limitKey).toBe("bmepMaxKPa");
+    expect(bmep?.by).toBeCloseTo((strong.results.bmepKPa ?? 0) - 1100, 10);
+    expect(strong.steps.at(-1)?.id).toBe("bmep");
+    expect(ok(computeSpec({ ...full, torqueNm: 150 })).cautions.map((c) => c.code)).not.toContain(
+      "BMEP_HIGH",
+    );
+  });
+
+  it("converts the card's closing to the limits' lift basis, and shows it in the work", () => {
+    // derived: closing 35° + 15° is the same package with a 50° card
+    const conv = ok(
+      computeSpec({
+        ...full,
+        intakeClosesAddDeg: 15,
+        intakeClosesBasis: "seat timing: card + 15°",
+      }),
+    );
+    const plain = ok(computeSpec({ ...full, intakeClosesAbdcDeg: 50 }));
+    expect(conv.results.dynamicCr).toBe(plain.results.dynamicCr);
+    expect(conv.results.dcrClosingDeg).toBe(50);
+    expect(conv.steps.find((x) => x.id === "pistonAtIvc")?.substituted).toBe(
+      "a = 57.15 mm, l = 190.5 mm, θ = 180° + 35° + 15° = 230° (seat timing: card + 15°)",
+    );
+    expect(conv.cautions.find((c) => c.code === "DYNAMIC_CR_HIGH")?.message).toContain(
+      "(closing on seat timing: card + 15°)",
+    );
+    const bad = computeSpec({ ...full, intakeClosesAbdcDeg: 170, intakeClosesAddDeg: 15 });
+    expect(bad.ok).toBe(false);
+    if (!bad.ok)
+      expect(bad.errors).toEqual([
+        {
+          field: "intakeClosesAddDeg",
+          message: "puts the intake closing outside 0 to 180 degrees after BDC",
+        },
+      ]);
+  });
+
+  it("refuses a fuel grade name that is not short plain text", () => {
+    const r = computeSpec({ ...full, fuelGrade: "pump\u000091" });
+    expect(r.ok).toBe(false);
+    if (!r.ok)
+      expect(r.errors).toEqual([
+        { field: "fuelGrade", message: "must be a name of up to 40 characters" },
+      ]);
   });
 
   it("a shop's or a part's own limits replace the defaults", () => {
@@ -174,7 +254,10 @@ describe("defaults name their sources", () => {
     }
     expect(DEFAULT_THRESHOLDS.staticCrMax.value).toBe(10.5);
     expect(DEFAULT_THRESHOLDS.dynamicCrMax.value).toBe(8.5);
-    expect(DEFAULT_THRESHOLDS.meanPistonSpeedMaxMs.value).toBe(20);
+    // quality street parts, not stock: 4500 ft/min (common practice)
+    expect(DEFAULT_THRESHOLDS.meanPistonSpeedMaxMs.value).toBe(22.9);
+    expect(DEFAULT_THRESHOLDS.peakPistonSpeedMaxMs.value).toBe(37.5);
+    expect(DEFAULT_THRESHOLDS.rodRatioMin.value).toBe(1.5);
     expect(DEFAULT_THRESHOLDS.meanPistonSpeedMaxMs.source).toMatch(/Mean piston speed/);
     expect(DEFAULT_THRESHOLDS.quenchMinMm.value).toBeCloseTo(0.762, 12);
     expect(DEFAULT_THRESHOLDS.quenchMaxMm.value).toBeCloseTo(1.27, 12);
@@ -235,9 +318,10 @@ describe("half-filled packages", () => {
   });
 
   it("each result is computed exactly when its inputs are there", () => {
+    const withTorque = { ...full, torqueNm: 150 }; // torque only feeds the BMEP figure
     for (const [key, needs] of Object.entries(RESULT_INPUTS)) {
       const only: Record<string, number> = {};
-      for (const f of needs) if (f !== "cylinders") only[f] = full[f];
+      for (const f of needs) if (f !== "cylinders") only[f] = withTorque[f];
       const r = ok(computeSpec(only));
       expect(r.results[key as keyof typeof r.results], key).not.toBeNull();
       for (const f of needs) {

@@ -5,7 +5,7 @@
 import type { ErrorResult } from "./errors";
 import { fmt } from "./format";
 import { cylinderCcRaw, heightAboveBdcRaw, peakSpeedAngleRaw, pistonVelocityRaw } from "./geometry";
-import type { Thresholds } from "./thresholds";
+import type { ThresholdKey, Thresholds } from "./thresholds";
 import { CC_PER_CI, mmToIn, msToFtMin } from "./units";
 import {
   CLEARANCE_FIELDS,
@@ -44,6 +44,10 @@ export interface SpecResults {
   rodRatio: number | null;
   /** Bore / stroke. */
   boreStrokeRatio: number | null;
+  /** Intake closing the dynamic ratio used, ° after BDC: the card's plus the basis conversion. */
+  dcrClosingDeg: number | null;
+  /** Brake mean effective pressure the torque figure implies, kPa (four-stroke). */
+  bmepKPa: number | null;
 }
 
 export type ResultKey = keyof SpecResults;
@@ -62,6 +66,8 @@ export const RESULT_INPUTS: { readonly [K in ResultKey]: readonly SpecField[] } 
   meanPistonSpeedMs: ["strokeMm", "revLimitRpm"],
   peakPistonSpeedMs: ["strokeMm", "rodLengthMm", "revLimitRpm"],
   peakPistonSpeedCrankDeg: ["strokeMm", "rodLengthMm"],
+  bmepKPa: ["boreMm", "strokeMm", "cylinders", "torqueNm"],
+  dcrClosingDeg: ["intakeClosesAbdcDeg"],
 };
 
 export type CautionCode =
@@ -70,7 +76,9 @@ export type CautionCode =
   | "MEAN_PISTON_SPEED_HIGH"
   | "PEAK_PISTON_SPEED_HIGH"
   | "QUENCH_TIGHT"
-  | "QUENCH_WIDE";
+  | "QUENCH_WIDE"
+  | "ROD_RATIO_LOW"
+  | "BMEP_HIGH";
 
 export interface Caution {
   code: CautionCode;
@@ -80,6 +88,10 @@ export interface Caution {
   value: number;
   /** The threshold it crossed. */
   limit: number;
+  /** Which threshold that is. */
+  limitKey: ThresholdKey;
+  /** How far beyond the limit the figure is, in the figure's unit (always > 0). */
+  by: number;
   /** The result the caution is about. */
   field: ResultKey;
 }
@@ -156,85 +168,160 @@ function ftMin(ms: number): string {
   return fmt(msToFtMin(ms), 4);
 }
 
-function cautionsFor(r: SpecResults, t: Thresholds, rpm: number | null): Caution[] {
+/** "by 0.42 m/s" — how far a figure is beyond its limit, in the figure's unit. */
+function byText(by: number, unit: string): string {
+  return `by ${fmt(by, 3)}${unit === ":1" || unit === "" ? "" : " " + unit}`;
+}
+
+function caution(
+  code: CautionCode,
+  field: ResultKey,
+  value: number,
+  limitKey: ThresholdKey,
+  limit: number,
+  message: string,
+): Caution {
+  return {
+    code,
+    severity: "caution",
+    value,
+    limit,
+    limitKey,
+    by: value > limit ? value - limit : limit - value,
+    field,
+    message,
+  };
+}
+
+function cautionsFor(
+  r: SpecResults,
+  t: Thresholds,
+  rpm: number | null,
+  grade: string | null,
+  basis: string | null,
+): Caution[] {
   const out: Caution[] = [];
   if (r.staticCr !== null && r.staticCr > t.staticCrMax) {
-    out.push({
-      code: "STATIC_CR_HIGH",
-      severity: "caution",
-      value: r.staticCr,
-      limit: t.staticCrMax,
-      field: "staticCr",
-      message:
-        `Static compression ${fmt(r.staticCr, 4)}:1 is above ${fmt(t.staticCrMax, 4)}:1, the limit set for pump fuel. ` +
-        "Higher compression raises the octane the engine needs and the risk of detonation; " +
-        "confirm with the piston maker's limits, the fuel the rider will use, and your tuner.",
-    });
+    out.push(
+      caution(
+        "STATIC_CR_HIGH",
+        "staticCr",
+        r.staticCr,
+        "staticCrMax",
+        t.staticCrMax,
+        `Static compression ${fmt(r.staticCr, 4)}:1 is above ${fmt(t.staticCrMax, 4)}:1, the limit set for pump fuel, ` +
+          `${byText(r.staticCr - t.staticCrMax, ":1")}. ` +
+          "Higher compression raises the octane the engine needs and the risk of detonation; " +
+          "confirm with the piston maker's limits, the fuel the rider will use, and your tuner.",
+      ),
+    );
   }
   if (r.dynamicCr !== null && r.dynamicCr > t.dynamicCrMax) {
-    out.push({
-      code: "DYNAMIC_CR_HIGH",
-      severity: "caution",
-      value: r.dynamicCr,
-      limit: t.dynamicCrMax,
-      field: "dynamicCr",
-      message:
-        `Dynamic compression ${fmt(r.dynamicCr, 4)}:1 is above ${fmt(t.dynamicCrMax, 4)}:1, the limit set for pump fuel. ` +
-        "Check the intake closing figure against the cam card and its lift, and " +
-        "confirm with the cam and piston makers' limits and your tuner.",
-    });
+    const fuel = grade === null ? "pump fuel" : grade;
+    const on = basis === null ? "" : ` (closing on ${basis})`;
+    out.push(
+      caution(
+        "DYNAMIC_CR_HIGH",
+        "dynamicCr",
+        r.dynamicCr,
+        "dynamicCrMax",
+        t.dynamicCrMax,
+        `Dynamic compression ${fmt(r.dynamicCr, 4)}:1${on} is above ${fmt(t.dynamicCrMax, 4)}:1, the limit set for ${fuel}, ` +
+          `${byText(r.dynamicCr - t.dynamicCrMax, ":1")}. ` +
+          "Check the intake closing figure against the cam card and its lift, and " +
+          "confirm with the cam and piston makers' limits and your tuner.",
+      ),
+    );
   }
   const at = rpm === null ? "" : ` at ${fin(rpm)} rpm`;
   if (r.meanPistonSpeedMs !== null && r.meanPistonSpeedMs > t.meanPistonSpeedMaxMs) {
-    out.push({
-      code: "MEAN_PISTON_SPEED_HIGH",
-      severity: "caution",
-      value: r.meanPistonSpeedMs,
-      limit: t.meanPistonSpeedMaxMs,
-      field: "meanPistonSpeedMs",
-      message:
+    const by = r.meanPistonSpeedMs - t.meanPistonSpeedMaxMs;
+    out.push(
+      caution(
+        "MEAN_PISTON_SPEED_HIGH",
+        "meanPistonSpeedMs",
+        r.meanPistonSpeedMs,
+        "meanPistonSpeedMaxMs",
+        t.meanPistonSpeedMaxMs,
         `Mean piston speed${at} is ${fmt(r.meanPistonSpeedMs, 4)} m/s (${ftMin(r.meanPistonSpeedMs)} ft/min), ` +
-        `above ${fmt(t.meanPistonSpeedMaxMs, 4)} m/s. Confirm the rev limit with the piston, rod and crank makers' ratings.`,
-    });
+          `above the limit of ${fmt(t.meanPistonSpeedMaxMs, 4)} m/s ${byText(by, "m/s")}. ` +
+          "Confirm the rev limit with the piston, rod and crank makers' ratings.",
+      ),
+    );
   }
   if (r.peakPistonSpeedMs !== null && r.peakPistonSpeedMs > t.peakPistonSpeedMaxMs) {
-    out.push({
-      code: "PEAK_PISTON_SPEED_HIGH",
-      severity: "caution",
-      value: r.peakPistonSpeedMs,
-      limit: t.peakPistonSpeedMaxMs,
-      field: "peakPistonSpeedMs",
-      message:
+    const by = r.peakPistonSpeedMs - t.peakPistonSpeedMaxMs;
+    out.push(
+      caution(
+        "PEAK_PISTON_SPEED_HIGH",
+        "peakPistonSpeedMs",
+        r.peakPistonSpeedMs,
+        "peakPistonSpeedMaxMs",
+        t.peakPistonSpeedMaxMs,
         `Peak piston speed${at} is ${fmt(r.peakPistonSpeedMs, 4)} m/s (${ftMin(r.peakPistonSpeedMs)} ft/min), ` +
-        `above ${fmt(t.peakPistonSpeedMaxMs, 4)} m/s. Confirm the rev limit with the piston, rod and crank makers' ratings.`,
-    });
+          `above the limit of ${fmt(t.peakPistonSpeedMaxMs, 4)} m/s ${byText(by, "m/s")}. ` +
+          "Confirm the rev limit with the piston, rod and crank makers' ratings.",
+      ),
+    );
   }
   if (r.quenchMm !== null) {
     if (r.quenchMm < t.quenchMinMm) {
-      out.push({
-        code: "QUENCH_TIGHT",
-        severity: "caution",
-        value: r.quenchMm,
-        limit: t.quenchMinMm,
-        field: "quenchMm",
-        message:
-          `Quench ${fmt(r.quenchMm, 4)} mm (${fmt(mmToIn(r.quenchMm), 3)} in) is tighter than ${fmt(t.quenchMinMm, 4)} mm: ` +
-          "risk of piston-to-head contact at speed. Measure the deck and the compressed gasket, and " +
-          "confirm with the piston maker's minimum clearance.",
-      });
+      out.push(
+        caution(
+          "QUENCH_TIGHT",
+          "quenchMm",
+          r.quenchMm,
+          "quenchMinMm",
+          t.quenchMinMm,
+          `Quench ${fmt(r.quenchMm, 4)} mm (${fmt(mmToIn(r.quenchMm), 3)} in) is tighter than ${fmt(t.quenchMinMm, 4)} mm ` +
+            `${byText(t.quenchMinMm - r.quenchMm, "mm")}: ` +
+            "risk of piston-to-head contact at speed. Measure the deck and the compressed gasket, and " +
+            "confirm with the piston maker's minimum clearance.",
+        ),
+      );
     } else if (r.quenchMm > t.quenchMaxMm) {
-      out.push({
-        code: "QUENCH_WIDE",
-        severity: "caution",
-        value: r.quenchMm,
-        limit: t.quenchMaxMm,
-        field: "quenchMm",
-        message:
-          `Quench ${fmt(r.quenchMm, 4)} mm (${fmt(mmToIn(r.quenchMm), 3)} in) is wider than ${fmt(t.quenchMaxMm, 4)} mm: ` +
-          "the squish band does little and detonation is more likely. Confirm with the piston and " +
-          "head makers' recommendations and your tuner.",
-      });
+      out.push(
+        caution(
+          "QUENCH_WIDE",
+          "quenchMm",
+          r.quenchMm,
+          "quenchMaxMm",
+          t.quenchMaxMm,
+          `Quench ${fmt(r.quenchMm, 4)} mm (${fmt(mmToIn(r.quenchMm), 3)} in) is wider than ${fmt(t.quenchMaxMm, 4)} mm ` +
+            `${byText(r.quenchMm - t.quenchMaxMm, "mm")}: ` +
+            "the squish band does little and detonation is more likely. Confirm with the piston and " +
+            "head makers' recommendations and your tuner.",
+        ),
+      );
     }
+  }
+  if (r.rodRatio !== null && r.rodRatio < t.rodRatioMin) {
+    out.push(
+      caution(
+        "ROD_RATIO_LOW",
+        "rodRatio",
+        r.rodRatio,
+        "rodRatioMin",
+        t.rodRatioMin,
+        `Rod ratio ${fmt(r.rodRatio, 4)} (rod length / stroke) is below the minimum of ${fmt(t.rodRatioMin, 4)} ` +
+          `${byText(t.rodRatioMin - r.rodRatio, "")}: the piston is pushed harder against the bore. ` +
+          "Confirm the piston's skirt design and clearance with its maker.",
+      ),
+    );
+  }
+  if (r.bmepKPa !== null && r.bmepKPa > t.bmepMaxKPa) {
+    out.push(
+      caution(
+        "BMEP_HIGH",
+        "bmepKPa",
+        r.bmepKPa,
+        "bmepMaxKPa",
+        t.bmepMaxKPa,
+        `The torque figure implies a brake mean effective pressure of ${fmt(r.bmepKPa, 4)} kPa, ` +
+          `above the ${fmt(t.bmepMaxKPa, 4)} kPa the shop expects such a build to reach ${byText(r.bmepKPa - t.bmepMaxKPa, "kPa")}. ` +
+          "Check the target against dyno results of similar builds before promising it.",
+      ),
+    );
   }
   return out;
 }
@@ -317,7 +404,7 @@ function compute(input: SpecInput, withSteps: boolean): SpecOutcome {
     l !== null &&
     s.intakeClosesAbdcDeg !== null
   ) {
-    const above = heightAboveBdcRaw(L / 2, l, s.intakeClosesAbdcDeg);
+    const above = heightAboveBdcRaw(L / 2, l, s.intakeClosesAbdcDeg + s.intakeClosesAddDeg);
     yIvc = L - above;
     dcr = (swept + vc - cylinderCcRaw(B, above)) / vc;
     if (!Number.isFinite(dcr)) return outOfRange("rodLengthMm");
@@ -352,6 +439,12 @@ function compute(input: SpecInput, withSteps: boolean): SpecOutcome {
     }
   }
 
+  let bmep: number | null = null;
+  if (disp !== null && s.torqueNm !== null) {
+    bmep = (4 * Math.PI * s.torqueNm) / (disp / 1000);
+    if (!Number.isFinite(bmep)) return outOfRange("torqueNm");
+  }
+
   const results: SpecResults = {
     displacementCc: disp,
     displacementCi: dispCi,
@@ -365,12 +458,15 @@ function compute(input: SpecInput, withSteps: boolean): SpecOutcome {
     quenchMm: quench,
     rodRatio: rr,
     boreStrokeRatio: bs,
+    bmepKPa: bmep,
+    dcrClosingDeg:
+      s.intakeClosesAbdcDeg === null ? null : s.intakeClosesAbdcDeg + s.intakeClosesAddDeg,
   };
   const work: Work = { s, r: results, gasketCc, deckCc, yIvc, omega };
   return {
     ok: true,
     results,
-    cautions: cautionsFor(results, s.thresholds, rpm),
+    cautions: cautionsFor(results, s.thresholds, rpm, s.fuelGrade, s.intakeClosesBasis),
     steps: withSteps ? buildSteps(work) : [],
     missing: v.missing,
   };
@@ -523,7 +619,10 @@ function buildSteps(w: Work): Step[] {
         id: "pistonAtIvc",
         label: "Piston below TDC when the intake closes",
         formula: Y_FORMULA,
-        substituted: `a = ${fa} mm, l = ${fl} mm, θ = 180° + ${fin(s.intakeClosesAbdcDeg)}° = ${fin(180 + s.intakeClosesAbdcDeg)}°`,
+        substituted:
+          s.intakeClosesAddDeg === 0 && s.intakeClosesBasis === null
+            ? `a = ${fa} mm, l = ${fl} mm, θ = 180° + ${fin(s.intakeClosesAbdcDeg)}° = ${fin(180 + s.intakeClosesAbdcDeg)}°`
+            : `a = ${fa} mm, l = ${fl} mm, θ = 180° + ${fin(s.intakeClosesAbdcDeg)}° ${s.intakeClosesAddDeg < 0 ? "−" : "+"} ${fin(Math.abs(s.intakeClosesAddDeg))}° = ${fin(180 + s.intakeClosesAbdcDeg + s.intakeClosesAddDeg)}° (${s.intakeClosesBasis ?? "card closing plus the shop's conversion"})`,
         result: w.yIvc,
         unit: "mm",
       },
@@ -643,6 +742,17 @@ function buildSteps(w: Work): Step[] {
         rec,
       ),
     );
+  }
+  // only when a torque figure was given: BMEP is optional and never "missing"
+  if (r.bmepKPa !== null && r.displacementCc !== null && s.torqueNm !== null) {
+    steps.push({
+      id: "bmep",
+      label: "Brake mean effective pressure the torque implies",
+      formula: "bmep = 2π · n_R · T / V, n_R = 2 (four-stroke)",
+      substituted: `4π × ${fin(s.torqueNm)} N·m ÷ ${fmt(r.displacementCc / 1000)} L`,
+      result: r.bmepKPa,
+      unit: "kPa",
+    });
   }
   return steps;
 }

@@ -17,6 +17,18 @@ export interface Thresholds {
   quenchMinMm: number;
   /** Widest quench that still gives a working squish band, mm. */
   quenchMaxMm: number;
+  /** Shortest rod for its stroke, as the trade's rod ratio l/L. */
+  rodRatioMin: number;
+  /** Highest brake mean effective pressure a target may imply, kPa. */
+  bmepMaxKPa: number;
+  /** Smallest spring coil-bind margin at full lift, mm. */
+  coilBindMarginMinMm: number;
+  /** Smallest retainer-to-seal clearance at full lift, mm. */
+  retainerToSealMinMm: number;
+  /** Smallest intake piston-to-valve clearance, mm. */
+  pistonToValveIntakeMinMm: number;
+  /** Smallest exhaust piston-to-valve clearance, mm. */
+  pistonToValveExhaustMinMm: number;
 }
 
 export type ThresholdKey = keyof Thresholds;
@@ -49,18 +61,18 @@ export const DEFAULT_THRESHOLDS: { readonly [K in ThresholdKey]: ThresholdDefaul
     source: "common practice: about 8.5:1 dynamic on pump fuel",
   },
   meanPistonSpeedMaxMs: {
-    value: 20,
+    value: 22.9,
     unit: "m/s",
-    basis: "published",
+    basis: "common practice",
     source:
-      'Wikipedia, "Mean piston speed": high-speed petrol and motorcycle engines near 20–25 m/s; the lower end is used',
+      'common practice: about 4500 ft/min (22.9 m/s) mean for quality forged street pistons, rods and crank; Wikipedia, "Mean piston speed", puts high-speed petrol and motorcycle engines near 20–25 m/s',
   },
   peakPistonSpeedMaxMs: {
-    value: 33,
+    value: 37.5,
     unit: "m/s",
     basis: "from memory",
     source:
-      "from memory: the mean-speed default × 1.64, the peak-to-mean ratio at a rod ratio near 1.67",
+      "from memory: the mean-speed limit × 1.64, the peak-to-mean ratio of a rod ratio near 1.65",
   },
   quenchMinMm: {
     value: inToMm(0.03),
@@ -74,6 +86,46 @@ export const DEFAULT_THRESHOLDS: { readonly [K in ThresholdKey]: ThresholdDefaul
     basis: "common practice",
     source: "common practice: quench of 0.030–0.050 in (0.76–1.27 mm)",
   },
+  rodRatioMin: {
+    value: 1.5,
+    unit: "",
+    basis: "common practice",
+    source:
+      "common practice: below about 1.5 (rod length / stroke) piston side load and skirt wear rise",
+  },
+  bmepMaxKPa: {
+    value: 1100,
+    unit: "kPa",
+    basis: "from memory",
+    source:
+      "from memory: Heywood (1988) gives about 850–1050 kPa at maximum torque for naturally aspirated spark-ignition engines; a little above that for a well-developed build",
+  },
+  coilBindMarginMinMm: {
+    value: inToMm(0.06),
+    unit: "mm",
+    basis: "common practice",
+    source: "common practice: at least 0.060 in (1.5 mm) between coils at full lift",
+  },
+  retainerToSealMinMm: {
+    value: inToMm(0.06),
+    unit: "mm",
+    basis: "common practice",
+    source:
+      "common practice: at least 0.060 in (1.5 mm) from the retainer to the seal at full lift",
+  },
+  pistonToValveIntakeMinMm: {
+    value: inToMm(0.08),
+    unit: "mm",
+    basis: "common practice",
+    source: "common practice: about 0.080 in (2.0 mm) intake piston-to-valve",
+  },
+  pistonToValveExhaustMinMm: {
+    value: inToMm(0.1),
+    unit: "mm",
+    basis: "common practice",
+    source:
+      "common practice: about 0.100 in (2.5 mm) exhaust piston-to-valve (the exhaust valve grows hot)",
+  },
 };
 
 export const THRESHOLD_KEYS: readonly ThresholdKey[] = [
@@ -83,7 +135,22 @@ export const THRESHOLD_KEYS: readonly ThresholdKey[] = [
   "peakPistonSpeedMaxMs",
   "quenchMinMm",
   "quenchMaxMm",
+  "rodRatioMin",
+  "bmepMaxKPa",
+  "coilBindMarginMinMm",
+  "retainerToSealMinMm",
+  "pistonToValveIntakeMinMm",
+  "pistonToValveExhaustMinMm",
 ];
+
+/** Limits that may be zero (minimum clearances); the others must be greater than zero. */
+export const ZERO_ALLOWED: ReadonlySet<ThresholdKey> = new Set<ThresholdKey>([
+  "quenchMinMm",
+  "coilBindMarginMinMm",
+  "retainerToSealMinMm",
+  "pistonToValveIntakeMinMm",
+  "pistonToValveExhaustMinMm",
+]);
 
 /** The default values alone. */
 export const DEFAULT_THRESHOLD_VALUES: Readonly<Thresholds> = Object.freeze({
@@ -93,4 +160,10 @@ export const DEFAULT_THRESHOLD_VALUES: Readonly<Thresholds> = Object.freeze({
   peakPistonSpeedMaxMs: DEFAULT_THRESHOLDS.peakPistonSpeedMaxMs.value,
   quenchMinMm: DEFAULT_THRESHOLDS.quenchMinMm.value,
   quenchMaxMm: DEFAULT_THRESHOLDS.quenchMaxMm.value,
+  rodRatioMin: DEFAULT_THRESHOLDS.rodRatioMin.value,
+  bmepMaxKPa: DEFAULT_THRESHOLDS.bmepMaxKPa.value,
+  coilBindMarginMinMm: DEFAULT_THRESHOLDS.coilBindMarginMinMm.value,
+  retainerToSealMinMm: DEFAULT_THRESHOLDS.retainerToSealMinMm.value,
+  pistonToValveIntakeMinMm: DEFAULT_THRESHOLDS.pistonToValveIntakeMinMm.value,
+  pistonToValveExhaustMinMm: DEFAULT_THRESHOLDS.pistonToValveExhaustMinMm.value,
 });

@@ -9,6 +9,7 @@ import type { ErrorResult, FieldError } from "./errors";
 import {
   DEFAULT_THRESHOLD_VALUES,
   THRESHOLD_KEYS,
+  ZERO_ALLOWED,
   type ThresholdInput,
   type Thresholds,
 } from "./thresholds";
@@ -24,7 +25,8 @@ export type SpecField =
   | "pistonDomeCc"
   | "rodLengthMm"
   | "intakeClosesAbdcDeg"
-  | "revLimitRpm";
+  | "revLimitRpm"
+  | "torqueNm";
 
 /** One engine package as typed or dropped on the bench. Every field is optional. */
 export interface SpecInput {
@@ -50,8 +52,19 @@ export interface SpecInput {
   intakeClosesAbdcDeg?: number | null | undefined;
   /** Rev limit, rpm. */
   revLimitRpm?: number | null | undefined;
+  /**
+   * Degrees added to the card's intake closing to reach the basis the dynamic-compression
+   * limit is on (e.g. +15° from a 0.050 in checking-lift angle to seat timing); default 0.
+   */
+  intakeClosesAddDeg?: number | null | undefined;
+  /** What that basis and conversion are, for the worked step and the caution. */
+  intakeClosesBasis?: string | null | undefined;
+  /** Torque target or estimate, N·m (optional: it gives the BMEP the target implies). */
+  torqueNm?: number | null | undefined;
   /** Limits for the cautions; missing keys take DEFAULT_THRESHOLDS. */
   thresholds?: ThresholdInput | null | undefined;
+  /** Name of the fuel grade `thresholds.dynamicCrMax` is for (e.g. "pump 91"), for the caution's text. */
+  fuelGrade?: string | null | undefined;
 }
 
 /** A validated package: every field a finite number or null (missing). */
@@ -67,7 +80,11 @@ export interface CheckedSpec {
   rodLengthMm: number | null;
   intakeClosesAbdcDeg: number | null;
   revLimitRpm: number | null;
+  torqueNm: number | null;
+  intakeClosesAddDeg: number;
+  intakeClosesBasis: string | null;
   thresholds: Thresholds;
+  fuelGrade: string | null;
 }
 
 export interface ValidSpec {
@@ -77,7 +94,10 @@ export interface ValidSpec {
   missing: SpecField[];
 }
 
-/** All input fields, in the order screens list them. */
+/**
+ * All input fields, in the order screens list them. `torqueNm` is optional and never
+ * counted as missing: only the BMEP figure needs it.
+ */
 export const SPEC_FIELDS: readonly SpecField[] = [
   "boreMm",
   "strokeMm",
@@ -105,6 +125,7 @@ export const FIELD_LABELS: { readonly [F in SpecField]: string } = {
   rodLengthMm: "rod length (mm)",
   intakeClosesAbdcDeg: "intake closes (° after BDC, from the cam card)",
   revLimitRpm: "rev limit (rpm)",
+  torqueNm: "torque (N·m)",
 };
 
 /** The fields that fix the clearance volume and static ratio (besides stroke). */
@@ -134,6 +155,7 @@ const KIND: Record<Exclude<SpecField, "cylinders">, Kind> = {
   rodLengthMm: "positive",
   intakeClosesAbdcDeg: "ivc",
   revLimitRpm: "positive",
+  torqueNm: "positive",
 };
 
 function readNumber(
@@ -172,7 +194,7 @@ function readThresholds(raw: unknown, errors: FieldError[]): Thresholds {
   for (const key of THRESHOLD_KEYS) {
     const v = src[key];
     if (v === undefined || v === null) continue;
-    const min0 = key === "quenchMinMm";
+    const min0 = ZERO_ALLOWED.has(key);
     if (typeof v !== "number" || !Number.isFinite(v) || (min0 ? v < 0 : v <= 0)) {
       errors.push({
         field: `thresholds.${key}`,
@@ -189,6 +211,14 @@ function readThresholds(raw: unknown, errors: FieldError[]): Thresholds {
     });
   }
   return out;
+}
+
+function hasControl(text: string): boolean {
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c < 0x20 || c === 0x7f) return true;
+  }
+  return false;
 }
 
 /** π/4 · B² · h in cc. */
@@ -279,6 +309,54 @@ export function validateSpec(
     errors,
   );
 
+  const torqueNm = readNumber(
+    get === null ? src.torqueNm : get("torqueNm"),
+    "torqueNm",
+    KIND.torqueNm,
+    errors,
+  );
+
+  let fuelGrade: string | null = null;
+  const rawGrade = src.fuelGrade;
+  if (rawGrade !== undefined && rawGrade !== null) {
+    if (typeof rawGrade === "string" && rawGrade.length <= 40 && !hasControl(rawGrade)) {
+      fuelGrade = rawGrade;
+    } else {
+      errors.push({ field: "fuelGrade", message: "must be a name of up to 40 characters" });
+    }
+  }
+
+  let intakeClosesAddDeg = 0;
+  const rawAdd = src.intakeClosesAddDeg;
+  if (rawAdd !== undefined && rawAdd !== null) {
+    if (typeof rawAdd === "number" && Number.isFinite(rawAdd) && Math.abs(rawAdd) <= 60) {
+      intakeClosesAddDeg = rawAdd;
+      if (
+        intakeClosesAbdcDeg !== null &&
+        !(intakeClosesAbdcDeg + rawAdd >= 0 && intakeClosesAbdcDeg + rawAdd < 180)
+      ) {
+        errors.push({
+          field: "intakeClosesAddDeg",
+          message: "puts the intake closing outside 0 to 180 degrees after BDC",
+        });
+      }
+    } else {
+      errors.push({
+        field: "intakeClosesAddDeg",
+        message: "must be a number of degrees between −60 and 60",
+      });
+    }
+  }
+  let intakeClosesBasis: string | null = null;
+  const rawBasis = src.intakeClosesBasis;
+  if (rawBasis !== undefined && rawBasis !== null) {
+    if (typeof rawBasis === "string" && rawBasis.length <= 200 && !hasControl(rawBasis)) {
+      intakeClosesBasis = rawBasis;
+    } else {
+      errors.push({ field: "intakeClosesBasis", message: "must be text of up to 200 characters" });
+    }
+  }
+
   let cylinders = DEFAULT_CYLINDERS;
   const rawCyl = get === null ? src.cylinders : get("cylinders");
   if (rawCyl !== undefined && rawCyl !== null) {
@@ -303,7 +381,11 @@ export function validateSpec(
     rodLengthMm,
     intakeClosesAbdcDeg,
     revLimitRpm,
+    torqueNm,
+    intakeClosesAddDeg,
+    intakeClosesBasis,
     thresholds,
+    fuelGrade,
   };
 
   if (required !== undefined) {

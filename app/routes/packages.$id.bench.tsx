@@ -377,7 +377,7 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
           <div className="order-3 lg:order-none">
             <ResultsPanel
               computation={bench.computation}
-              input={toCalcInput(bench.spec, fields)}
+              input={toCalcInput(bench.spec, fields, bench.base.limits, bench.parts)}
               findings={bench.base.findings}
               findingsStale={bench.pending}
               units={units}

@@ -1,5 +1,5 @@
 import { readForm } from "~/lib/http/body";
-import { queryInt, requireIdParam, zId } from "~/lib/http/ids";
+import { requireIdParam, zId } from "~/lib/http/ids";
 import { readQuery } from "~/lib/http/text";
 import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";

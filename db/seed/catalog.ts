@@ -719,7 +719,14 @@ export const DEMO_PARTS: P[] = [
 const DEFER =
   "Follow the parts maker's instructions and torque values; have the work checked by a qualified technician.";
 
-function demoRules(
+/**
+ * The demo shop's fit rules. One source per check: the limits calc/ cautions about
+ * (compression for the fuel grade, piston speed, the quench window, rod ratio, BMEP) come
+ * from the shop's caution limits (/settings/limits), never from a rule. A rule may read
+ * those figures only for a concern of its own — the static-compression rule is about the
+ * starter without a compression release, not the fuel. db/seed/catalog.test.ts checks it.
+ */
+export function demoRules(
   lockingId: number | null,
   clutchId: number | null,
   brakeId: number | null,
@@ -783,17 +790,6 @@ function demoRules(
       condition: 'filled("cam") and filled("springs") and cam.lift_mm > springs.max_lift_mm',
       message:
         "The cam lifts the valves further than the springs are rated for: they can bind. Fit the springs the cam maker lists for this lift and check coil-bind and retainer clearance to the maker's figures.",
-      upgrade_category: null,
-      suggested_part_id: null,
-      active: true,
-    },
-    {
-      name: "Wide quench",
-      kind: "caution",
-      // common practice: shops aim for about 0.9–1.0 mm (0.035–0.040 in) of quench
-      condition: "known(quench_mm) and quench_mm > 1.3",
-      message:
-        "Quench over 1.3 mm gives up the squish that resists detonation. A thinner gasket or a different deck height brings it back.",
       upgrade_category: null,
       suggested_part_id: null,
       active: true,

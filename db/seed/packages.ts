@@ -1,7 +1,8 @@
 // Demo packages on the demo customers' bikes, in different statuses, plus one shop
 // template. Parts are looked up by the demo catalog's part numbers. One package trips
 // the power rule (150 hp target on stock axle adjusters), one has a gasket bore under
-// the cylinder bore.
+// the cylinder bore. Each name's cubic inches are what its parts compute to (± 0.5 ci;
+// db/seed/packages.test.ts checks it).
 import type { Kysely } from "kysely";
 import type { Database } from "../schema";
 import type { PackageStatus } from "../schema/packages";
@@ -51,7 +52,7 @@ export const DEMO_PACKAGES: Demo[] = [
     notes: "Two-up touring; rider wants 150 hp at the wheel. Chassis list still open.",
   },
   {
-    name: "Mountain torque, 117 ci",
+    name: "Mountain torque, 113 ci",
     vin: "DEMO1NB21000002",
     status: "quoted",
     parts: {
@@ -72,7 +73,7 @@ export const DEMO_PACKAGES: Demo[] = [
     notes: "Stock gasket carried over from the old top end: check the gasket bore before ordering.",
   },
   {
-    name: "Drag nights, 131 ci with tall bars",
+    name: "Drag nights, 135 ci with tall bars",
     vin: "DEMO1BV17000003",
     status: "approved",
     parts: {
@@ -94,7 +95,7 @@ export const DEMO_PACKAGES: Demo[] = [
     notes: "Heads cc'd on the bench at 89.2 cc.",
   },
   {
-    name: "Daily rider refresh, 114 ci",
+    name: "Daily rider refresh, 113 ci",
     vin: "DEMO1BV20000005",
     status: "in_build",
     parts: {
@@ -115,7 +116,7 @@ export const DEMO_PACKAGES: Demo[] = [
     notes: "Pump fuel only; keep it mild.",
   },
   {
-    name: "Cross-country reliability, 107 ci",
+    name: "Cross-country reliability, 106 ci",
     vin: "DEMO1NB18000006",
     status: "delivered",
     parts: {
@@ -136,7 +137,7 @@ export const DEMO_PACKAGES: Demo[] = [
     notes: "Freshened top end before the spring trip.",
   },
   {
-    name: "Shop template: stage 2 bolt-in, 114 ci",
+    name: "Shop template: stage 2 bolt-in, 113 ci",
     vin: null,
     status: "draft",
     parts: {

@@ -326,6 +326,13 @@ export const ROWS: Row[] = [
     body: { intent: "invite", email: "" },
     expect: { ...staffOnly("owner"), owner: "invalid" },
   },
+  { path: "/settings/limits", expect: staffOnly("owner") },
+  {
+    path: "/settings/limits",
+    method: "POST",
+    body: { meanPistonSpeedMaxMs: "" },
+    expect: staffOnly("owner"),
+  },
   { path: "/dev/outbox", expect: staffOnly("owner") },
   { path: "/dev/outbox/999999", expect: { ...staffOnly("owner"), owner: 404 } },
   { path: "/packages", expect: staffOnly("owner", "builder", "service_writer") },

@@ -200,7 +200,8 @@ describe("bench actions", () => {
     const id = await newPackage();
     const rev = await fill(id);
     expect(rev).toBe(10);
-    const expected = computeSpec(SPEC);
+    // the shop's default lift basis: seat timing, the card's 0.053 in closing + 15°
+    const expected = computeSpec({ ...SPEC, intakeClosesAddDeg: 15 });
     if (!expected.ok) throw new Error("fixture spec does not compute");
     const row = await current(id);
     expect((row.results as any).results).toEqual(expected.results);

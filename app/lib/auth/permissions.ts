@@ -29,6 +29,7 @@ export const PERMISSIONS = {
   "parts:edit": ["owner"],
   "rules:edit": ["owner"],
   "rates:edit": ["owner"],
+  "limits:edit": ["owner"],
   "staff:manage": ["owner"],
   "outbox:read": ["owner"],
   "packages:read": STAFF_WITH_CUSTOMERS,

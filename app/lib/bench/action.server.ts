@@ -1,6 +1,7 @@
 // One bench action on the server: parse, apply to the current spec, recompute, check the
 // fit rules, save into the working copy and its edit log — or refuse (400 with field
 // errors, 409 when the bench's version of the working copy is stale).
+import { getCalcLimits } from "../settings/limits.server";
 import { sql } from "kysely";
 import { data } from "react-router";
 import type { Db } from "../db.server";
@@ -152,7 +153,10 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
   }
   if (row.version !== expectedVersion) return staleAnswer(db, packageId, expectedVersion);
 
-  const rules = await activeRules(db, row.rules_fingerprint);
+  const [rules, limits] = await Promise.all([
+    activeRules(db, row.rules_fingerprint),
+    getCalcLimits(db),
+  ]);
   const known = partMap(row.parts, true);
   const before = normaliseSpec(row.spec);
   const spec = applyIntent(before, action);
@@ -178,12 +182,14 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
       );
     }
   }
-  const computation = computeBench(toCalcInput(spec, resolveFields(spec, known)));
+  const computation = computeBench(toCalcInput(spec, resolveFields(spec, known), limits, known));
 
   // A typed value that makes the engine impossible is refused; parts that do not go
   // together are saved and reported by the fit rules.
   if (action.intent === "set-measured" || action.intent === "set-number") {
-    const was = computeBench(toCalcInput(before, resolveFields(before, known))).inputErrors;
+    const was = computeBench(
+      toCalcInput(before, resolveFields(before, known), limits, known),
+    ).inputErrors;
     const fresh = computation.inputErrors.filter(
       (e) => !was.some((w) => w.field === e.field && w.message === e.message),
     );
@@ -234,6 +240,7 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
       rules: newRules,
       // the bench has its base's parts; only the one put in can be new to it
       parts: action.intent === "set-part" ? [parts.get(action.partId)!] : [],
+      limits,
       savedBy: user.name,
       savedAt: new Date().toISOString(),
       change,

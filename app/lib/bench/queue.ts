@@ -144,8 +144,8 @@ export function useBenchQueue(initial: BenchState, partsFromLoader: BenchPart[])
     () =>
       queue.length === 0
         ? base.computation
-        : computeBench(toCalcInput(spec, resolveFields(spec, parts))),
-    [queue.length, base.computation, spec, parts],
+        : computeBench(toCalcInput(spec, resolveFields(spec, parts), base.limits, parts)),
+    [queue.length, base.computation, spec, parts, base.limits],
   );
 
   return {

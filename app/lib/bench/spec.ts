@@ -11,6 +11,7 @@ import {
   type Step,
 } from "../../../calc";
 import { SLOTS, SLOT_BY_KEY } from "../packages/slots";
+import { closingConversion, type CalcLimits } from "../settings/limits";
 import type { PackageStatus } from "../../../db/schema/packages";
 
 export type PowerBasis = "target" | "estimate" | "measured";
@@ -168,12 +169,33 @@ export function resolveFields(spec: BenchSpec, parts: ReadonlyMap<number, BenchP
   return out;
 }
 
-export function toCalcInput(spec: BenchSpec, resolved: Resolved): SpecInput {
+/**
+ * calc's input for a spec. `limits` are the shop's caution limits (calc's defaults
+ * without); with the spec's `parts` as well, the cam card's closing is converted to the
+ * limits' lift basis (the card's `timingAtLiftMm`).
+ */
+export function toCalcInput(
+  spec: BenchSpec,
+  resolved: Resolved,
+  limits?: CalcLimits,
+  parts?: ReadonlyMap<number, BenchPart>,
+): SpecInput {
   const input: SpecInput = {
     cylinders: spec.cylinders,
     deckClearanceMm: spec.deckClearanceMm,
     revLimitRpm: spec.revLimitRpm,
   };
+  if (limits) {
+    input.thresholds = limits.thresholds;
+    input.fuelGrade = limits.fuelGrade;
+    if (parts && resolved.intakeClosesAbdcDeg.value !== null) {
+      const camId = spec.slots.cam?.partId;
+      const cam = camId != null ? parts.get(camId) : undefined;
+      const conv = closingConversion(limits, attrNumber(cam, "timingAtLiftMm"));
+      input.intakeClosesAddDeg = conv.addDeg;
+      input.intakeClosesBasis = conv.basis;
+    }
+  }
   for (const f of MEASURED_FIELDS) input[f] = resolved[f].value;
   return input;
 }
@@ -191,6 +213,8 @@ const EMPTY_RESULTS: SpecResults = {
   quenchMm: null,
   rodRatio: null,
   boreStrokeRatio: null,
+  bmepKPa: null,
+  dcrClosingDeg: null,
 };
 
 export interface BenchComputation {

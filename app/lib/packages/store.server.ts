@@ -13,7 +13,6 @@ import {
   normaliseSpec,
   resolveFields,
   ruleKey,
-  storedComputation,
   toCalcInput,
   toFindingRef,
   withRuleInfo,
@@ -25,6 +24,8 @@ import {
   type SpecChange,
 } from "../bench/spec";
 import { buildRuleSnapshot, type PackageSnapshot } from "../fit-rules/snapshot";
+import type { CalcLimits } from "../settings/limits";
+import { getCalcLimits } from "../settings/limits.server";
 import { closeOpenRevision, writeEdit, writeStart, type EditSaved } from "./revisions-log.server";
 import {
   evaluateRules,
@@ -165,6 +166,8 @@ export interface Evaluation {
   snapshot: PackageSnapshot;
   findings: Finding[];
   parts: Map<number, BenchPart>;
+  /** The shop's caution limits the computation used. */
+  limits: CalcLimits;
 }
 
 export function partIds(spec: BenchSpec): number[] {
@@ -237,17 +240,18 @@ export async function evaluateSpec(
 ): Promise<Evaluation> {
   const spec = normaliseSpec(raw);
   const ids = partIds(spec);
-  const [loaded, rules] = await Promise.all([
+  const [loaded, rules, limits] = await Promise.all([
     known ? undefined : loadParts(db, ids, prices),
     activeRules ?? loadActiveRules(db),
+    getCalcLimits(db),
   ]);
   const parts =
     loaded ??
     new Map(ids.flatMap((id) => (known!.has(id) ? [[id, known!.get(id)!] as const] : [])));
-  const computation = computeBench(toCalcInput(spec, resolveFields(spec, parts)));
+  const computation = computeBench(toCalcInput(spec, resolveFields(spec, parts), limits, parts));
   const snapshot = snapshotFor(spec, parts, computation);
   const findings = await evaluateRules(snapshot, rules);
-  return { spec, computation, snapshot, findings, parts };
+  return { spec, computation, snapshot, findings, parts, limits };
 }
 
 export interface PackageHeader {
@@ -339,6 +343,8 @@ export interface BenchState {
   computation: BenchComputation;
   findings: BenchFinding[];
   parts: BenchPart[];
+  /** The shop's caution limits, for the browser's figures before the server answers. */
+  limits: CalcLimits;
   /** who made the latest edit, when, and what it changed */
   savedBy: string | null;
   savedAt: string;
@@ -451,10 +457,14 @@ export async function getBenchState(
   if (!row) return null;
   const spec = normaliseSpec(row.spec);
   const snapshot = "rule_snapshot" in row ? (row.rule_snapshot as PackageSnapshot) : undefined;
-  const [parts, findings] = await Promise.all([
+  const [parts, findings, limits] = await Promise.all([
     loadParts(db, partIds(spec), prices),
     readFindings(db, row.findings, snapshot),
+    getCalcLimits(db),
   ]);
+  // computed again (a few microseconds): the cautions and the dynamic ratio's lift basis
+  // follow the shop's limits of today, which may have changed since the save
+  const computation = computeBench(toCalcInput(spec, resolveFields(spec, parts), limits, parts));
   return {
     packageId: row.id,
     version: row.version,
@@ -462,9 +472,10 @@ export async function getBenchState(
     revisionOpen: row.closed_at === null,
     revisionEdits: Number(row.revision_edits ?? 0),
     spec,
-    computation: storedComputation(row.results),
+    computation,
     findings,
     parts: [...parts.values()],
+    limits,
     savedBy: row.saved_by_name,
     savedAt: new Date(row.at ?? row.updated_at).toISOString(),
     change: row.change ?? "",
