@@ -26,5 +26,7 @@ export default [
   route("rules", "routes/rules.tsx"),
   route("rules/new", "routes/rules.new.tsx"),
   route("rules/:id", "routes/rules.$id.tsx"),
+  route("build-request", "routes/build-request.tsx"),
+  route("build-request/thanks", "routes/build-request.thanks.tsx"),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

@@ -206,6 +206,10 @@ export const ROWS: Row[] = [
     body: { intent: "save" },
     expect: { ...staffOnly("owner"), owner: 404 },
   },
+  { path: "/build-request", expect: all("ok") },
+  // a post without the page's honeypot stamp gets the thank-you page, and nothing is stored
+  { path: "/build-request", method: "POST", body: { name: "" }, expect: all("redirect") },
+  { path: "/build-request/thanks", expect: all("ok") },
   { path: "/no-such-page", expect: all(404) },
 ];
 
