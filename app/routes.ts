@@ -28,5 +28,7 @@ export default [
   route("rules/:id", "routes/rules.$id.tsx"),
   route("build-request", "routes/build-request.tsx"),
   route("build-request/thanks", "routes/build-request.thanks.tsx"),
+  route("requests", "routes/requests.tsx"),
+  route("requests/:id", "routes/requests.$id.tsx"),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

@@ -210,6 +210,17 @@ export const ROWS: Row[] = [
   // a post without the page's honeypot stamp gets the thank-you page, and nothing is stored
   { path: "/build-request", method: "POST", body: { name: "" }, expect: all("redirect") },
   { path: "/build-request/thanks", expect: all("ok") },
+  { path: "/requests", expect: staffOnly("owner", "service_writer") },
+  {
+    path: "/requests/999999",
+    expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
+  },
+  {
+    path: "/requests/999999",
+    method: "POST",
+    body: { intent: "status", to: "contacted" },
+    expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
+  },
   { path: "/no-such-page", expect: all(404) },
 ];
 
