@@ -30,5 +30,9 @@ export default [
   route("build-request/thanks", "routes/build-request.thanks.tsx"),
   route("requests", "routes/requests.tsx"),
   route("requests/:id", "routes/requests.$id.tsx"),
+  route("customers", "routes/customers.tsx"),
+  route("customers/:id", "routes/customers.$id.tsx"),
+  route("customers/:id/export", "routes/customers.$id.export.ts"),
+  route("bikes/:id", "routes/bikes.$id.tsx"),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

@@ -221,6 +221,50 @@ export const ROWS: Row[] = [
     body: { intent: "status", to: "contacted" },
     expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
   },
+  { path: "/customers", expect: staffOnly("owner", "builder", "service_writer") },
+  {
+    path: "/customers",
+    method: "POST",
+    body: { name: "" },
+    expect: staffOnly("owner", "service_writer"),
+  },
+  {
+    path: "/customers/999999",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
+  {
+    path: "/customers/999999",
+    method: "POST",
+    body: { intent: "update", name: "" },
+    expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
+  },
+  {
+    path: "/customers/999999",
+    method: "POST",
+    body: { intent: "erase", confirm: "" },
+    expect: { ...staffOnly("owner"), owner: 404 },
+  },
+  { path: "/customers/999999/export", expect: { ...staffOnly("owner"), owner: 404 } },
+  {
+    path: "/bikes/999999",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
+  {
+    path: "/bikes/999999",
+    method: "POST",
+    body: { intent: "add-part" },
+    expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
+  },
   { path: "/no-such-page", expect: all(404) },
 ];
 
