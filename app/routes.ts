@@ -15,6 +15,7 @@ export default [
   route("packages/new", "routes/packages.new.tsx"),
   route("packages/:id", "routes/packages.$id.tsx"),
   route("packages/:id/bench", "routes/packages.$id.bench.tsx"),
+  route("packages/:id/keep-check", "routes/packages.$id.keep-check.tsx"),
   route("api/parts", "routes/api.parts.ts"),
   route("api/packages/:id", "routes/api.packages.$id.ts"),
   route("api/calc", "routes/api.calc.ts"),

@@ -265,6 +265,21 @@ export const ROWS: Row[] = [
     body: { intent: "add-part" },
     expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
   },
+  {
+    path: "/packages/999999/keep-check",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
+  {
+    path: "/packages/999999/keep-check",
+    method: "POST",
+    body: { intent: "done" },
+    expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
+  },
   { path: "/no-such-page", expect: all(404) },
 ];
 
