@@ -35,5 +35,8 @@ export default [
   route("customers/:id", "routes/customers.$id.tsx"),
   route("customers/:id/export", "routes/customers.$id.export.ts"),
   route("bikes/:id", "routes/bikes.$id.tsx"),
+  route("engine-families", "routes/engine-families.tsx"),
+  route("engine-families/new", "routes/engine-families.new.tsx"),
+  route("engine-families/:id", "routes/engine-families.$id.tsx"),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

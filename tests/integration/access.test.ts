@@ -280,6 +280,33 @@ export const ROWS: Row[] = [
     body: { intent: "done" },
     expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
   },
+  {
+    path: "/engine-families",
+    expect: staffOnly("owner", "builder", "service_writer", "apprentice"),
+  },
+  { path: "/engine-families/new", expect: staffOnly("owner") },
+  {
+    path: "/engine-families/new",
+    method: "POST",
+    body: { intent: "save", name: "" },
+    expect: staffOnly("owner"),
+  },
+  {
+    path: "/engine-families/999999",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer", "apprentice"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+      apprentice: 404,
+    },
+  },
+  {
+    path: "/engine-families/999999",
+    method: "POST",
+    body: { intent: "save" },
+    expect: { ...staffOnly("owner"), owner: 404 },
+  },
   { path: "/no-such-page", expect: all(404) },
 ];
 

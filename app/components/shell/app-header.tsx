@@ -11,6 +11,7 @@ const SECTIONS: (NavItem & { permission: Permission; localMailOnly?: boolean })[
   { to: "/customers", label: "Customers", permission: "customers:read" },
   { to: "/packages", label: "Packages", permission: "packages:read" },
   { to: "/parts", label: "Parts", permission: "parts:read" },
+  { to: "/engine-families", label: "Engines", permission: "families:read" },
   { to: "/rules", label: "Fit rules", permission: "rules:read" },
   { to: "/staff", label: "Staff", permission: "staff:manage" },
   { to: "/dev/outbox", label: "Outbox", permission: "outbox:read", localMailOnly: true },
