@@ -5,12 +5,19 @@ import type { AuthTables } from "./schema/auth";
 import type { CatalogTables } from "./schema/catalog";
 import type { PackageTables } from "./schema/packages";
 import type { SettingsTables } from "./schema/settings";
+import type { RequestTables } from "./schema/requests";
 
 export interface Database
-  extends CoreTables, AuthTables, CatalogTables, PackageTables, SettingsTables {}
+  extends CoreTables,
+    AuthTables,
+    CatalogTables,
+    PackageTables,
+    SettingsTables,
+    RequestTables {}
 
 export type * from "./schema/core";
 export type * from "./schema/auth";
 export type * from "./schema/catalog";
 export type * from "./schema/packages";
 export type * from "./schema/settings";
+export type * from "./schema/requests";

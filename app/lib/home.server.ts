@@ -2,6 +2,8 @@
 import type { SessionUser } from "./auth/auth.server";
 import type { Db } from "./db.server";
 import { can } from "./auth/permissions";
+import { requestCounts } from "./requests/intake.server";
+import { STATUS_LABELS } from "./requests/options";
 
 export type HomeStat = { label: string; value: number; to?: string; note?: string };
 
@@ -33,6 +35,22 @@ export async function homeStats(
       .select((eb) => eb.fn.countAll<number>().as("n"))
       .executeTakeFirst();
     stats.push({ label: "My open packages", value: count(mine), to: "/packages" });
+  }
+  if (can(user.role, "requests:read")) {
+    const counts = await requestCounts(db);
+    stats.push({
+      label: "New build requests",
+      value: counts.new ?? 0,
+      to: "/requests?status=new",
+    });
+    // the owner sees the whole queue by status
+    if (user.role === "owner")
+      for (const s of ["contacted", "waiting_on_rider", "converted", "declined"] as const)
+        stats.push({
+          label: `Requests: ${STATUS_LABELS[s].toLowerCase()}`,
+          value: counts[s] ?? 0,
+          to: `/requests?status=${s}`,
+        });
   }
   if (can(user.role, "customers:read")) {
     const [customers, bikes] = await Promise.all([

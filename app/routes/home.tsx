@@ -7,13 +7,15 @@ import { env } from "~/lib/env.server";
 import { homeStats, type HomeStat } from "~/lib/home.server";
 import { can, ROLE_LABELS } from "~/lib/auth/permissions";
 import { getShopOverview } from "~/lib/shop.server";
+import { waitingOnKeepCheck } from "~/lib/keep-check/keep-check.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const db = getDb();
-  const [{ shop }, { stats, statuses }] = await Promise.all([
+  const [{ shop }, { stats, statuses }, keepChecks] = await Promise.all([
     getShopOverview(db),
     homeStats(db, user),
+    can(user.role, "keepcheck:edit") ? waitingOnKeepCheck(db) : Promise.resolve([]),
   ]);
   const links = navFor(user.role, { localMail: Boolean(env().LOCAL_MAIL_API_URL) }).filter(
     (l) => l.to !== "/",
@@ -28,7 +30,7 @@ export async function loader({ request }: Route.LoaderArgs) {
         ...(can(user.role, "prices:read") ? { labour_rate_cents: shop.labour_rate_cents } : {}),
       }
     : null;
-  return { shop: shopView, user, stats, statuses, links };
+  return { shop: shopView, user, stats, statuses, links, keepChecks };
 }
 
 const STATUS_LABELS: Record<string, string> = {
@@ -50,7 +52,7 @@ const LEADS: Record<string, string> = {
 };
 
 export default function Home({ loaderData }: Route.ComponentProps) {
-  const { shop, user, stats, statuses, links } = loaderData;
+  const { shop, user, stats, statuses, links, keepChecks } = loaderData;
   return (
     <main className="mx-auto max-w-7xl px-4 py-8">
       <p className="text-sm font-semibold uppercase tracking-widest text-steel-700">
@@ -67,6 +69,28 @@ export default function Home({ loaderData }: Route.ComponentProps) {
             <Stat key={s.label} {...s} />
           ))}
         </dl>
+      ) : null}
+      {keepChecks.length > 0 ? (
+        <section aria-labelledby="keep-checks" className="mt-8">
+          <h2 id="keep-checks" className="text-lg font-semibold text-ink">
+            Waiting on a keep-check
+          </h2>
+          <ul className="mt-2 divide-y divide-steel-100 rounded border border-steel-200 bg-white">
+            {keepChecks.map((k) => (
+              <li key={k.id} className="px-4 py-2">
+                <Link
+                  to={`/packages/${k.id}/keep-check`}
+                  className="font-medium text-teal-text underline"
+                >
+                  {k.name}
+                </Link>{" "}
+                <span className="text-sm text-steel-700">
+                  {k.customer} · {k.year} {k.model}
+                </span>
+              </li>
+            ))}
+          </ul>
+        </section>
       ) : null}
       {statuses.length > 0 ? (
         <section aria-labelledby="by-status" className="mt-8">

@@ -135,6 +135,14 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
         >
           Open the spec bench
         </Link>
+        {header.bikeId ? (
+          <Link
+            to={`/packages/${header.id}/keep-check`}
+            className="rounded border border-teal-dark bg-white px-3 py-1.5 font-semibold text-teal-text"
+          >
+            Keep-check
+          </Link>
+        ) : null}
       </div>
       <p className="mt-1 text-steel-700">
         {header.isTemplate

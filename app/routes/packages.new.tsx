@@ -9,6 +9,7 @@ import type { Route } from "./+types/packages.new";
 import { requirePermission } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
 import { createPackage } from "~/lib/packages/store.server";
+import { startingSpecForBike } from "~/lib/packages/from-bike.server";
 
 const NewPackageSchema = z.discriminatedUnion("mode", [
   z.object({
@@ -122,6 +123,8 @@ export async function action({ request }: Route.ActionArgs) {
         { status: 400 },
       );
   }
+  // a bike's package starts from its engine family's stock parts and what it carries now
+  if (v.mode === "scratch") spec = await startingSpecForBike(db, v.bikeId);
   const id = await createPackage(
     db,
     {

@@ -36,6 +36,8 @@ export interface CustomerTable {
   city: string | null;
   notes: string;
   created_at: Generated<Timestamp>;
+  /** set when the owner erased the customer's personal data (db/schema/requests.ts) */
+  erased_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
 }
 
 export interface BikeTable {
@@ -48,6 +50,8 @@ export interface BikeTable {
   mileage: number | null;
   notes: string;
   created_at: Generated<Timestamp>;
+  engine_family_id: ColumnType<number | null, number | null | undefined, number | null>;
+  erased_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
 }
 
 export interface CoreTables {

@@ -685,6 +685,107 @@ export const ROWS: Row[] = [
     body: { intent: "save" },
     expect: { ...staffOnly("owner"), owner: 404 },
   },
+  { path: "/build-request", expect: all("ok") },
+  // a post without the page's honeypot stamp gets the thank-you page, and nothing is stored
+  { path: "/build-request", method: "POST", body: { name: "" }, expect: all("redirect") },
+  { path: "/build-request/thanks", expect: all("ok") },
+  { path: "/requests", expect: staffOnly("owner", "service_writer") },
+  {
+    path: "/requests/999999",
+    expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
+  },
+  {
+    path: "/requests/999999",
+    method: "POST",
+    body: { intent: "status", to: "contacted" },
+    expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
+  },
+  { path: "/customers", expect: staffOnly("owner", "builder", "service_writer") },
+  {
+    path: "/customers",
+    method: "POST",
+    body: { name: "" },
+    expect: staffOnly("owner", "service_writer"),
+  },
+  {
+    path: "/customers/999999",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
+  {
+    path: "/customers/999999",
+    method: "POST",
+    body: { intent: "update", name: "" },
+    expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
+  },
+  {
+    path: "/customers/999999",
+    method: "POST",
+    body: { intent: "erase", confirm: "" },
+    expect: { ...staffOnly("owner"), owner: 404 },
+  },
+  { path: "/customers/999999/export", expect: { ...staffOnly("owner"), owner: 404 } },
+  {
+    path: "/bikes/999999",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
+  {
+    path: "/bikes/999999",
+    method: "POST",
+    body: { intent: "add-part" },
+    expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
+  },
+  {
+    path: "/packages/999999/keep-check",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
+  {
+    path: "/packages/999999/keep-check",
+    method: "POST",
+    body: { intent: "done" },
+    expect: { ...staffOnly("owner", "service_writer"), owner: 404, service_writer: 404 },
+  },
+  {
+    path: "/engine-families",
+    expect: staffOnly("owner", "builder", "service_writer", "apprentice"),
+  },
+  { path: "/engine-families/new", expect: staffOnly("owner") },
+  {
+    path: "/engine-families/new",
+    method: "POST",
+    body: { intent: "save", name: "" },
+    expect: staffOnly("owner"),
+  },
+  {
+    path: "/engine-families/999999",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer", "apprentice"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+      apprentice: 404,
+    },
+  },
+  {
+    path: "/engine-families/999999",
+    method: "POST",
+    body: { intent: "save" },
+    expect: { ...staffOnly("owner"), owner: 404 },
+  },
   { path: "/no-such-page", expect: all(404) },
 ];
 

@@ -7,8 +7,11 @@ export type NavItem = { to: string; label: string };
 // Add an entry here once its route exists.
 const SECTIONS: (NavItem & { permission: Permission; localMailOnly?: boolean })[] = [
   { to: "/", label: "Home", permission: "home:read" },
+  { to: "/requests", label: "Requests", permission: "requests:read" },
+  { to: "/customers", label: "Customers", permission: "customers:read" },
   { to: "/packages", label: "Packages", permission: "packages:read" },
   { to: "/parts", label: "Parts", permission: "parts:read" },
+  { to: "/engine-families", label: "Engines", permission: "families:read" },
   { to: "/rules", label: "Fit rules", permission: "rules:read" },
   { to: "/staff", label: "Staff", permission: "staff:manage" },
   { to: "/dev/outbox", label: "Outbox", permission: "outbox:read", localMailOnly: true },
@@ -30,7 +33,7 @@ export function AppHeader({
 }) {
   const items = navFor(user?.role ?? null, { localMail });
   return (
-    <header className="bg-ink text-steel-50">
+    <header className="bg-ink text-steel-50 print:hidden">
       <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-8 gap-y-2 px-4 py-3">
         <a href="/" className="flex items-center gap-2 text-xl font-bold tracking-wide">
           <LogoMark />

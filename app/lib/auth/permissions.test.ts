@@ -22,7 +22,13 @@ describe("the role table", () => {
 
   it("the apprentice studies the library and reads the catalog and rules, and changes nothing", () => {
     const allowed = everything.filter((p) => can("apprentice", p)).sort();
-    expect(allowed).toEqual(["home:read", "library:read", "parts:read", "rules:read"]);
+    expect(allowed).toEqual([
+      "families:read",
+      "home:read",
+      "library:read",
+      "parts:read",
+      "rules:read",
+    ]);
     expect(can("apprentice", "customers:contact")).toBe(false);
     expect(can("apprentice", "prices:read")).toBe(false);
   });
