@@ -10,7 +10,10 @@ import {
 import type { Route } from "./+types/root";
 import { AppHeader } from "./components/shell/app-header";
 import { getUser } from "./lib/auth/auth.server";
+import { getDb } from "./lib/db.server";
 import { env } from "./lib/env.server";
+import { DEFAULT_TIME_ZONE } from "./lib/format";
+import { getShopTimeZone } from "./lib/settings/shop-settings.server";
 import { ensureJobWorkers } from "./lib/mail/workers.server";
 import "./app.css";
 
@@ -18,7 +21,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   // The first request a server answers starts its share of the job queue.
   ensureJobWorkers();
   const user = await getUser(request);
-  return { user, localMail: Boolean(env().LOCAL_MAIL_API_URL) };
+  // every screen writes dates in the shop's time zone
+  const timeZone = user ? await getShopTimeZone(getDb()) : DEFAULT_TIME_ZONE;
+  return { user, localMail: Boolean(env().LOCAL_MAIL_API_URL), timeZone };
 }
 
 export function Layout({ children }: { children: React.ReactNode }) {

@@ -17,7 +17,8 @@ import {
 } from "~/lib/packages/store.server";
 import { PACKAGE_STATUSES } from "../../db/schema/packages";
 import { StatusBadge } from "~/components/packages/status-badge";
-import { RevisionCompare } from "~/components/packages/revision-compare";
+import { RevisionList } from "~/components/packages/revision-list";
+import { When } from "~/components/ui/when";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "packages:read");
@@ -174,104 +175,23 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
           <ol className="mt-3 text-sm">
             {statuses.map((s, i) => (
               <li key={i} className="border-t border-steel-100 py-1">
-                <span className="num text-steel-700">{new Date(s.at).toLocaleString()}</span> ·{" "}
-                {s.from ? `${s.from.replace("_", " ")} → ` : ""}
+                <span className="text-steel-700">
+                  <When at={s.at} time />
+                </span>{" "}
+                · {s.from ? `${s.from.replace("_", " ")} → ` : ""}
                 {s.to.replace("_", " ")} · {s.by ?? "—"}
               </li>
             ))}
           </ol>
         </section>
-        <section className="rounded border border-steel-200 bg-white p-3">
-          <h2 className="font-semibold text-ink">Revisions</h2>
-          <Form method="get" className="mt-2 flex flex-wrap items-end gap-2 text-sm">
-            <label className="flex flex-col">
-              <span className="text-xs text-steel-700">Compare</span>
-              <select
-                name="a"
-                defaultValue={compare?.a.revision ?? Math.max(1, header.revision - 1)}
-                className="rounded border border-steel-300 px-1 py-1"
-              >
-                {revisions.map((r) => (
-                  <option key={r.revision} value={r.revision}>
-                    revision {r.revision}
-                  </option>
-                ))}
-              </select>
-            </label>
-            <label className="flex flex-col">
-              <span className="text-xs text-steel-700">with</span>
-              <select
-                name="b"
-                defaultValue={compare?.b.revision ?? header.revision}
-                className="rounded border border-steel-300 px-1 py-1"
-              >
-                {revisions.map((r) => (
-                  <option key={r.revision} value={r.revision}>
-                    revision {r.revision}
-                  </option>
-                ))}
-              </select>
-            </label>
-            <button type="submit" className="rounded bg-ink px-3 py-1 font-semibold text-white">
-              Compare
-            </button>
-          </Form>
-          {compare ? (
-            <RevisionCompare compare={compare} />
-          ) : loaderData.compareAsked ? (
-            <p className="mt-2 text-sm text-red-text">One of those revisions does not exist.</p>
-          ) : null}
-          <div className="mt-3 overflow-x-auto">
-            <table className="w-full min-w-[32rem] text-left text-sm">
-              <thead className="text-xs text-steel-700">
-                <tr>
-                  <th className="py-1 pr-2">#</th>
-                  <th className="pr-2">Change</th>
-                  <th className="pr-2">Saved</th>
-                  <th className="pr-2">Findings</th>
-                  <th />
-                </tr>
-              </thead>
-              <tbody>
-                {revisions.map((r) => (
-                  <tr
-                    key={r.revision}
-                    className="border-t border-steel-100"
-                    data-testid={`revision-${r.revision}`}
-                  >
-                    <td className="num py-1 pr-2 align-top">{r.revision}</td>
-                    <td className="pr-2 align-top">{r.change}</td>
-                    <td className="num pr-2 align-top text-steel-700">
-                      {r.savedBy ?? "—"} · {new Date(r.savedAt).toLocaleString()}
-                    </td>
-                    <td className="num pr-2 align-top whitespace-nowrap">
-                      {r.findings}
-                      {r.conflicts ? (
-                        <span className="text-red-text"> ({r.conflicts} conflict)</span>
-                      ) : null}
-                    </td>
-                    <td>
-                      {loaderData.canEdit && r.revision !== header.revision ? (
-                        <Form method="post">
-                          <input type="hidden" name="intent" value="restore" />
-                          <input type="hidden" name="revision" value={r.revision} />
-                          <input type="hidden" name="expectedRevision" value={header.revision} />
-                          <button
-                            type="submit"
-                            disabled={busy}
-                            className="text-xs text-teal-text underline"
-                          >
-                            Restore
-                          </button>
-                        </Form>
-                      ) : null}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        </section>
+        <RevisionList
+          revisions={revisions}
+          compare={compare}
+          compareAsked={loaderData.compareAsked}
+          currentRevision={header.revision}
+          canRestore={loaderData.canEdit}
+          busy={busy}
+        />
       </div>
     </main>
   );

@@ -1,5 +1,6 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/rules";
+import { When } from "~/components/ui/when";
 import { KindBadge } from "~/components/fit-rules/kind-badge";
 import { WithReference } from "~/components/fit-rules/with-reference";
 import { Caution } from "~/components/ui/alert";
@@ -29,8 +30,6 @@ export async function loader({ request }: Route.LoaderArgs) {
     })),
   };
 }
-
-const dateFmt = new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeZone: "UTC" });
 
 export default function Rules({ loaderData }: Route.ComponentProps) {
   const { rules, canEdit } = loaderData;
@@ -95,7 +94,7 @@ export default function Rules({ loaderData }: Route.ComponentProps) {
                     </td>
                     <td className="num px-3 py-2">v{r.version}</td>
                     <td className="px-3 py-2 text-steel-700">
-                      <span className="num">{dateFmt.format(new Date(r.updated_at))}</span>
+                      <When at={r.updated_at} />
                       {r.updated_by_name ? (
                         <span className="block">{r.updated_by_name}</span>
                       ) : null}

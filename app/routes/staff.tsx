@@ -7,6 +7,7 @@ import { FormAlert, formErrorsOf, Notice } from "~/components/ui/alert";
 import { SubmitButton } from "~/components/ui/button";
 import { SelectField, TextField } from "~/components/ui/field";
 import { PageHeader } from "~/components/ui/page-header";
+import { When } from "~/components/ui/when";
 import { requirePermission } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
 import { ROLE_LABELS, ROLES, type Role } from "~/lib/auth/permissions";
@@ -98,12 +99,6 @@ export async function action({ request }: Route.ActionArgs) {
   }
 }
 
-const dateFmt = new Intl.DateTimeFormat("en-US", {
-  dateStyle: "medium",
-  timeStyle: "short",
-  timeZone: "UTC",
-});
-
 export default function Staff({ loaderData }: Route.ComponentProps) {
   const { staff, invites, me } = loaderData;
   return (
@@ -138,7 +133,7 @@ export default function Staff({ loaderData }: Route.ComponentProps) {
                     <p className="font-medium text-ink">{i.email}</p>
                     <p className="text-steel-700">
                       {ROLE_LABELS[i.role ?? "apprentice"]} · expires{" "}
-                      <span className="num">{dateFmt.format(new Date(i.expires_at))} UTC</span>
+                      <When at={i.expires_at} time />
                     </p>
                     <Form method="post" className="mt-1">
                       <input type="hidden" name="intent" value="revoke" />

@@ -1,5 +1,6 @@
 // Shown when a save was refused because someone else saved first: what they changed,
 // who and when, and the user's own change kept to apply on top.
+import { When } from "~/components/ui/when";
 import type { StaleInfo } from "~/lib/bench/queue";
 
 export function StaleNotice({
@@ -26,8 +27,8 @@ export function StaleNotice({
       </h2>
       <p className="mt-1 text-steel-700">
         {s.savedBy ?? "Someone"} saved revision <span className="num">{s.currentRevision}</span> at{" "}
-        <time dateTime={s.savedAt}>{new Date(s.savedAt).toLocaleString()}</time> (you were on
-        revision <span className="num">{s.baseRevision}</span>). The bench now shows their revision.
+        <When at={s.savedAt} time /> (you were on revision{" "}
+        <span className="num">{s.baseRevision}</span>). The bench now shows their revision.
       </p>
       {s.changes.length > 0 ? (
         <table className="mt-2 w-full text-left text-sm">

@@ -1,6 +1,6 @@
 import type { SpecChange } from "~/lib/bench/spec";
 
-type Compare = {
+export type Compare = {
   a: { revision: number };
   b: { revision: number };
   specChanges: SpecChange[];
