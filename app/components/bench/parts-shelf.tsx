@@ -53,7 +53,7 @@ export function PartsShelf({
       >
         Parts shelf
       </h2>
-      <div className="flex gap-1">
+      <div className="flex flex-col gap-1">
         <label htmlFor={searchId} className="sr-only">
           Search parts
         </label>
@@ -62,9 +62,9 @@ export function PartsShelf({
           type="search"
           value={q}
           onChange={(e) => setQ(e.target.value)}
-          placeholder="Search parts"
+          placeholder="Search number, name, tag…"
           title="Search by part number, name, maker or tag"
-          className="min-w-0 flex-1 rounded border border-steel-300 bg-white px-2 py-1 text-sm"
+          className="w-full rounded border border-steel-300 bg-white px-2 py-1 text-sm"
         />
         <label htmlFor={`${searchId}-cat`} className="sr-only">
           Category
@@ -73,7 +73,7 @@ export function PartsShelf({
           id={`${searchId}-cat`}
           value={category}
           onChange={(e) => setCategory(e.target.value)}
-          className="w-32 rounded border border-steel-300 bg-white px-1 py-1 text-sm"
+          className="w-full rounded border border-steel-300 bg-white px-1 py-1 text-sm"
         >
           <option value="">All categories</option>
           {categories.map((c) => (

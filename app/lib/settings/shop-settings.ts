@@ -53,36 +53,30 @@ export const ShopSettingsSchema = z
     labourRate: dollars("labour rate per hour"),
     taxRate: percent("tax rate"),
     depositKind: z.enum(["percent", "fixed"], "Choose how the deposit is set."),
-    depositValue: z.string("Enter the deposit.").trim().min(1, "Enter the deposit."),
+    depositValue: z
+      .string("Enter the deposit: a percentage such as 30, or dollars such as 500.00.")
+      .trim()
+      .transform((s) => s.replace(/^\$/, "").replace(/\s*%$/, "").replace(/,/g, ""))
+      .refine(
+        (s) => /^\d{1,6}(\.\d{1,2})?$/.test(s),
+        "Enter the deposit: a percentage such as 30, or dollars such as 500.00.",
+      ),
     timeZone: z
       .string("Choose the shop's time zone.")
       .refine((tz) => isTimeZone(tz) && tz.includes("/"), "Choose a time zone from the list."),
   })
   .transform((v, ctx) => {
-    const raw = v.depositValue.replace(/^\$/, "").replace(/\s*%$/, "").replace(/,/g, "");
-    let depositValue = 0;
-    if (v.depositKind === "percent") {
-      if (!/^\d{1,3}(\.\d{1,2})?$/.test(raw) || Number(raw) > 100) {
-        ctx.addIssue({
-          code: "custom",
-          path: ["depositValue"],
-          message: "Enter the deposit as a percentage of the quote from 0 to 100, e.g. 30.",
-        });
-        return z.NEVER;
-      }
-      depositValue = Math.round(Number(raw) * 100);
-    } else {
-      if (!/^\d{1,6}(\.\d{1,2})?$/.test(raw)) {
-        ctx.addIssue({
-          code: "custom",
-          path: ["depositValue"],
-          message: "Enter the deposit in dollars, e.g. 500.00.",
-        });
-        return z.NEVER;
-      }
-      depositValue = Math.round(Number(raw) * 100);
+    const n = Number(v.depositValue);
+    if (v.depositKind === "percent" && n > 100) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["depositValue"],
+        message: "A deposit set as a percentage is at most 100 % of the quote.",
+      });
+      return z.NEVER;
     }
-    return { ...v, depositValue };
+    // basis points of the quote, or cents: both are hundredths of the number typed
+    return { ...v, depositValue: Math.round(n * 100) };
   });
 
 export type ShopSettingsInput = z.output<typeof ShopSettingsSchema>;
