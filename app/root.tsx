@@ -87,7 +87,7 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
       <p className="mt-4 text-lg text-steel-700">{detail}</p>
       <a
         href="/"
-        className="mt-8 inline-block rounded bg-teal px-4 py-2 font-semibold text-white hover:bg-teal-dark"
+        className="mt-8 inline-block rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink"
       >
         Back to the home page
       </a>

@@ -127,7 +127,7 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
         )}
         <Link
           to={`/packages/${header.id}/bench`}
-          className="ml-auto rounded bg-teal px-3 py-1.5 font-semibold text-white hover:bg-teal-dark"
+          className="ml-auto rounded bg-teal-dark px-3 py-1.5 font-semibold text-white hover:bg-ink"
         >
           Open the spec bench
         </Link>

@@ -80,7 +80,7 @@ export default function Packages({ loaderData }: Route.ComponentProps) {
         {loaderData.canCreate ? (
           <Link
             to="/packages/new"
-            className="rounded bg-teal px-3 py-1.5 font-semibold text-white hover:bg-teal-dark"
+            className="rounded bg-teal-dark px-3 py-1.5 font-semibold text-white hover:bg-ink"
           >
             New package
           </Link>

@@ -301,7 +301,7 @@ function FindingItem({
         <button
           type="button"
           onClick={() => onUse(slot.key, f.suggestedPartId!)}
-          className="mt-1 rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark"
+          className="mt-1 rounded bg-teal-dark px-2 py-0.5 text-xs font-semibold text-white hover:bg-ink"
         >
           Use suggested part
         </button>
@@ -387,7 +387,7 @@ function Solver(props: {
             <button
               type="button"
               onClick={() => props.onUse(SOLVE[field].slot, field, Number(answer.value.toFixed(3)))}
-              className="ml-2 rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark"
+              className="ml-2 rounded bg-teal-dark px-2 py-0.5 text-xs font-semibold text-white hover:bg-ink"
             >
               Use as measured value
             </button>

@@ -205,7 +205,7 @@ function MeasuredRow(props: {
           <span className="text-xs text-steel-700">{unit}</span>
           <button
             type="submit"
-            className="rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark"
+            className="rounded bg-teal-dark px-2 py-0.5 text-xs font-semibold text-white hover:bg-ink"
           >
             Save
           </button>

@@ -57,7 +57,7 @@ export function StaleNotice({
           <button
             type="button"
             onClick={onApply}
-            className="rounded bg-teal px-3 py-1 font-semibold text-white hover:bg-teal-dark"
+            className="rounded bg-teal-dark px-3 py-1 font-semibold text-white hover:bg-ink"
           >
             Apply my change on top
           </button>
