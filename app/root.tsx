@@ -80,6 +80,7 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
 
   return (
     <main className="mx-auto max-w-3xl px-4 py-16">
+      <title>{`${title} · Torquewright`}</title>
       <p className="num text-sm font-semibold uppercase tracking-widest text-steel-700">
         Error {status}
       </p>

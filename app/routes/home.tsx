@@ -44,11 +44,13 @@ export default function Home({ loaderData }: Route.ComponentProps) {
         Hello {user.name.split(" ")[0]} — {ROLE_LABELS[user.role].toLowerCase()}. {LEADS[user.role]}
       </p>
       {stats.length > 0 ? (
-        <dl className="mt-6 grid grid-cols-2 gap-3 sm:gap-4 lg:grid-cols-4">
+        <ul className="mt-6 grid grid-cols-2 gap-3 sm:gap-4 lg:grid-cols-4">
           {stats.map((s) => (
-            <Stat key={s.label} {...s} />
+            <li key={s.label}>
+              <Stat {...s} />
+            </li>
           ))}
-        </dl>
+        </ul>
       ) : null}
       {statuses.length > 0 ? (
         <section aria-labelledby="by-status" className="mt-8">
@@ -123,17 +125,20 @@ export default function Home({ loaderData }: Route.ComponentProps) {
 function Stat({ label, value, to, note }: HomeStat) {
   const body = (
     <>
-      <dt className="text-sm text-steel-700">{label}</dt>
-      <dd className="num mt-1 text-3xl font-semibold text-ink">{value}</dd>
-      {note ? <dd className="mt-1 text-sm text-amber-text">{note}</dd> : null}
+      <span className="block text-sm text-steel-700">{label}</span>
+      <span className="num mt-1 block text-3xl font-semibold text-ink">{value}</span>
+      {note ? <span className="mt-1 block text-sm text-amber-text">{note}</span> : null}
     </>
   );
   return to ? (
-    <Link to={to} className="block rounded border border-steel-200 bg-white p-4 hover:border-teal">
+    <Link
+      to={to}
+      className="block h-full rounded border border-steel-200 bg-white p-4 hover:border-teal-dark"
+    >
       {body}
     </Link>
   ) : (
-    <div className="rounded border border-steel-200 bg-white p-4">{body}</div>
+    <div className="h-full rounded border border-steel-200 bg-white p-4">{body}</div>
   );
 }
 

@@ -6,6 +6,7 @@ import { can } from "~/lib/auth/permissions";
 import { listPackages, SORTS, type SortKey } from "~/lib/packages/store.server";
 import { PACKAGE_STATUSES, type PackageStatus } from "../../db/schema/packages";
 import { StatusBadge } from "~/components/packages/status-badge";
+import { statusLabel } from "~/lib/format/labels";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "packages:read");
@@ -96,7 +97,7 @@ export default function Packages({ loaderData }: Route.ComponentProps) {
           value={filters.status ?? ""}
           options={[
             ["", "Any"],
-            ...PACKAGE_STATUSES.map((s) => [s, s.replace("_", " ")] as [string, string]),
+            ...PACKAGE_STATUSES.map((s) => [s, statusLabel(s)] as [string, string]),
             ["template", "shop templates"],
           ]}
         />

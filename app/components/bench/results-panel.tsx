@@ -19,7 +19,7 @@ import {
   type Resolved,
 } from "~/lib/bench/spec";
 import { fmtLine, show, type Quantity, type Units } from "~/lib/bench/units";
-import { tidySigns } from "~/lib/format";
+import { formatNumber, tidySigns } from "~/lib/format";
 import { SLOTS } from "~/lib/packages/slots";
 
 const ROWS: { key: keyof SpecResults; label: string; q: Quantity | "ci" | "cc" | "plain" }[] = [
@@ -36,8 +36,8 @@ const ROWS: { key: keyof SpecResults; label: string; q: Quantity | "ci" | "cc" |
 
 function cell(v: number | null, q: (typeof ROWS)[number]["q"], units: Units) {
   // both displacements stay on the panel: ci and cc are the trade's two names for it
-  if (q === "ci") return show(v, "volume", "inch");
-  if (q === "cc") return show(v, "volume", "metric");
+  if (q === "ci") return { text: v === null ? "—" : formatNumber(v, 1), unit: "ci" };
+  if (q === "cc") return { text: v === null ? "—" : formatNumber(v, 0), unit: "cc" };
   return show(v, q, units);
 }
 

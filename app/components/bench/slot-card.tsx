@@ -79,7 +79,9 @@ export function SlotCard(props: {
             ) : null}
           </>
         ) : (
-          <span className="italic">Empty — drop a part here or pick one</span>
+          <span className="italic">
+            {canEdit ? "Empty — drop a part here or pick one" : "Empty"}
+          </span>
         )}
       </p>
       {canEdit ? (

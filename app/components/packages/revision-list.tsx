@@ -69,7 +69,12 @@ export function RevisionList({
       ) : compareAsked ? (
         <p className="mt-2 text-sm text-red-text">One of those revisions does not exist.</p>
       ) : null}
-      <div className="mt-3 overflow-x-auto">
+      <div
+        className="mt-3 overflow-x-auto"
+        tabIndex={0}
+        role="region"
+        aria-label="Revisions (scrolls sideways on a narrow screen)"
+      >
         <table className="w-full min-w-[32rem] text-left text-sm">
           <thead className="text-xs text-steel-700">
             <tr>
