@@ -71,6 +71,7 @@ export function RevisionList({
       ) : null}
       <div
         className="mt-3 overflow-x-auto"
+        // eslint-disable-next-line jsx-a11y/no-noninteractive-tabindex -- a scrolling region takes focus so a keyboard can scroll it
         tabIndex={0}
         role="region"
         aria-label="Revisions (scrolls sideways on a narrow screen)"
