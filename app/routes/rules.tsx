@@ -12,22 +12,32 @@ import { listRules } from "~/lib/fit-rules/rules.server";
 import { can } from "~/lib/auth/permissions";
 
 const iso = (d: unknown) => new Date(d as string).toISOString();
+const KIND_ORDER: Record<string, number> = { conflict: 0, upgrade: 1, caution: 2 };
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "rules:read");
   const rules = await listRules(getDb());
   return {
     canEdit: can(user.role, "rules:edit"),
-    rules: rules.map((r) => ({
-      id: r.id,
-      name: r.name,
-      kind: r.kind,
-      condition: r.condition,
-      active: r.active,
-      version: r.version,
-      updated_at: iso(r.updated_at),
-      updated_by_name: r.updated_by_name,
-    })),
+    // as the page says: conflicts first, then upgrades, then cautions; active before
+    // inactive, then by name
+    rules: [...rules]
+      .sort(
+        (a, b) =>
+          KIND_ORDER[a.kind] - KIND_ORDER[b.kind] ||
+          Number(b.active) - Number(a.active) ||
+          a.name.localeCompare(b.name),
+      )
+      .map((r) => ({
+        id: r.id,
+        name: r.name,
+        kind: r.kind,
+        condition: r.condition,
+        active: r.active,
+        version: r.version,
+        updated_at: iso(r.updated_at),
+        updated_by_name: r.updated_by_name,
+      })),
   };
 }
 

@@ -244,17 +244,21 @@ function StaffRow({ user, isMe }: { user: StaffUser; isMe: boolean }) {
           Save role
         </button>
       </fetcher.Form>
-      <fetcher.Form method="post">
-        <input type="hidden" name="intent" value={disabled ? "enable" : "disable"} />
-        <input type="hidden" name="userId" value={user.id} />
-        <button
-          type="submit"
-          disabled={busy}
-          className={`rounded px-3 py-2 text-sm font-semibold ${disabled ? "bg-teal-dark text-white hover:bg-ink" : "border border-red text-red-text hover:bg-steel-50"}`}
-        >
-          {disabled ? "Enable" : "Disable"}
-        </button>
-      </fetcher.Form>
+      {isMe ? (
+        <p className="text-sm text-steel-700">Your own account cannot be disabled here.</p>
+      ) : (
+        <fetcher.Form method="post">
+          <input type="hidden" name="intent" value={disabled ? "enable" : "disable"} />
+          <input type="hidden" name="userId" value={user.id} />
+          <button
+            type="submit"
+            disabled={busy}
+            className={`rounded px-3 py-2 text-sm font-semibold ${disabled ? "bg-teal-dark text-white hover:bg-ink" : "border border-red text-red-text hover:bg-steel-50"}`}
+          >
+            {disabled ? "Enable" : "Disable"}
+          </button>
+        </fetcher.Form>
+      )}
     </li>
   );
 }
