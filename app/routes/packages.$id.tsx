@@ -8,6 +8,7 @@ import { can } from "~/lib/auth/permissions";
 import {
   changeStatus,
   compareRevisions,
+  getBenchState,
   getPackageHeader,
   listRevisions,
   listStatusChanges,
@@ -19,6 +20,9 @@ import { PACKAGE_STATUSES } from "../../db/schema/packages";
 import { StatusBadge } from "~/components/packages/status-badge";
 import { RevisionList } from "~/components/packages/revision-list";
 import { When } from "~/components/ui/when";
+import { PackageSummary } from "~/components/packages/package-summary";
+import { getUnits } from "~/lib/units-pref.server";
+import { statusLabel } from "~/lib/format/labels";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "packages:read");
@@ -29,11 +33,34 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const url = new URL(request.url);
   const a = Number(url.searchParams.get("a"));
   const b = Number(url.searchParams.get("b"));
-  const [revisions, statuses, compare] = await Promise.all([
+  const [revisions, statuses, compare, state, units] = await Promise.all([
     listRevisions(db, id),
     listStatusChanges(db, id),
     a > 0 && b > 0 ? compareRevisions(db, id, a, b) : Promise.resolve(null),
+    getBenchState(db, id, can(user.role, "prices:read")),
+    getUnits(db, user.id),
   ]);
+  const editable = EDITABLE_STATUSES.includes(header.status);
+  const nextStep = can(user.role, "packages:edit")
+    ? editable
+      ? {
+          text: "Finish the spec on the bench: fill the empty slots, clear the conflicts, and check the cautions.",
+          link: `/packages/${header.id}/bench`,
+          label: "Open the spec bench",
+        }
+      : {
+          text: `The spec is locked while the package is ${statusLabel(header.status).toLowerCase()}; the bench shows it read-only.`,
+          link: `/packages/${header.id}/bench`,
+          label: "See the bench",
+        }
+    : {
+        text:
+          header.status === "draft"
+            ? "The builder is drafting the spec. Review the figures and findings, then move the status when the quote has gone out."
+            : "Review the figures and findings on the bench (read-only), and move the status as the work goes on.",
+        link: `/packages/${header.id}/bench`,
+        label: "See the bench",
+      };
   return {
     header,
     revisions,
@@ -43,6 +70,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     transitions: header.isTemplate ? [] : STATUS_TRANSITIONS[header.status],
     canEdit: can(user.role, "packages:edit") && EDITABLE_STATUSES.includes(header.status),
     canStatus: can(user.role, "packages:create"),
+    state,
+    units,
+    nextStep,
   };
 }
 
@@ -71,7 +101,10 @@ export async function action({ request, params }: Route.ActionArgs) {
     const user = staff;
     const out = await changeStatus(db, id, parsed.data.to, user.id);
     return out.ok
-      ? data({ ok: true as const, message: `Status is now ${parsed.data.to.replace("_", " ")}.` })
+      ? data({
+          ok: true as const,
+          message: `Status is now ${statusLabel(parsed.data.to).toLowerCase()}.`,
+        })
       : data({ ok: false as const, message: out.message }, { status: 400 });
   }
   const user = await requireRole(request, "owner", "builder");
@@ -147,6 +180,19 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
           {actionData.message}
         </p>
       ) : null}
+      {loaderData.state ? (
+        <PackageSummary
+          id={header.id}
+          customer={header.isTemplate ? null : header.customerName}
+          bike={header.isTemplate ? null : header.bikeLabel}
+          spec={loaderData.state.spec}
+          computation={loaderData.state.computation}
+          findings={loaderData.state.findings}
+          parts={loaderData.state.parts}
+          units={loaderData.units}
+          nextStep={loaderData.nextStep}
+        />
+      ) : null}
       <div className="mt-4 grid grid-cols-1 gap-4 lg:grid-cols-[1fr_2fr]">
         <section className="rounded border border-steel-200 bg-white p-3">
           <h2 className="font-semibold text-ink">Status</h2>
@@ -161,7 +207,7 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
                   disabled={busy}
                   className="rounded border border-steel-300 px-2 py-1 text-sm font-semibold hover:bg-steel-100"
                 >
-                  Move to {t.replace("_", " ")}
+                  Move to {statusLabel(t).toLowerCase()}
                 </button>
               ))}
             </Form>
@@ -178,8 +224,8 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
                 <span className="text-steel-700">
                   <When at={s.at} time />
                 </span>{" "}
-                · {s.from ? `${s.from.replace("_", " ")} → ` : ""}
-                {s.to.replace("_", " ")} · {s.by ?? "—"}
+                · {s.from ? `${statusLabel(s.from)} → ` : ""}
+                {statusLabel(s.to)} · {s.by ?? "—"}
               </li>
             ))}
           </ol>
