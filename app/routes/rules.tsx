@@ -76,8 +76,8 @@ export default function Rules({ loaderData }: Route.ComponentProps) {
                 <tr>
                   <th className="px-3 py-2">Kind</th>
                   <th className="px-3 py-2">Rule</th>
-                  <th className="px-3 py-2">Version</th>
-                  <th className="px-3 py-2">Changed</th>
+                  <th className="hidden px-3 py-2 sm:table-cell">Version</th>
+                  <th className="hidden px-3 py-2 sm:table-cell">Changed</th>
                 </tr>
               </thead>
               <tbody>
@@ -101,9 +101,14 @@ export default function Rules({ loaderData }: Route.ComponentProps) {
                       <code className="mt-0.5 block break-all font-mono text-xs text-steel-700">
                         {r.condition}
                       </code>
+                      {/* on a phone, version and change sit under the rule */}
+                      <span className="mt-0.5 block text-xs text-steel-700 sm:hidden">
+                        version {r.version} · changed <When at={r.updated_at} />
+                        {r.updated_by_name ? ` by ${r.updated_by_name}` : ""}
+                      </span>
                     </td>
-                    <td className="num px-3 py-2">v{r.version}</td>
-                    <td className="px-3 py-2 text-steel-700">
+                    <td className="num hidden px-3 py-2 sm:table-cell">v{r.version}</td>
+                    <td className="hidden px-3 py-2 text-steel-700 sm:table-cell">
                       <When at={r.updated_at} />
                       {r.updated_by_name ? (
                         <span className="block">{r.updated_by_name}</span>
