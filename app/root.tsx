@@ -10,7 +10,10 @@ import {
 import type { Route } from "./+types/root";
 import { AppHeader } from "./components/shell/app-header";
 import { getUser } from "./lib/auth/auth.server";
+import { getDb } from "./lib/db.server";
 import { env } from "./lib/env.server";
+import { DEFAULT_TIME_ZONE } from "./lib/format";
+import { getShopTimeZone } from "./lib/settings/shop-settings.server";
 import { ensureJobWorkers } from "./lib/mail/workers.server";
 import "./app.css";
 import { z } from "zod";
@@ -23,7 +26,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   // The first request a server answers starts its share of the job queue.
   ensureJobWorkers();
   const user = await getUser(request);
-  return { user, localMail: Boolean(env().LOCAL_MAIL_API_URL) };
+  // every screen writes dates in the shop's time zone
+  const timeZone = user ? await getShopTimeZone(getDb()) : DEFAULT_TIME_ZONE;
+  return { user, localMail: Boolean(env().LOCAL_MAIL_API_URL), timeZone };
 }
 
 export function Layout({ children }: { children: React.ReactNode }) {
@@ -86,6 +91,7 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
 
   return (
     <main className="mx-auto max-w-3xl px-4 py-16">
+      <title>{`${title} · Torquewright`}</title>
       <p className="num text-sm font-semibold uppercase tracking-widest text-steel-700">
         Error {status}
       </p>
@@ -93,7 +99,7 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
       <p className="mt-4 text-lg text-steel-700">{detail}</p>
       <a
         href="/"
-        className="mt-8 inline-block rounded bg-teal px-4 py-2 font-semibold text-white hover:bg-teal-dark"
+        className="mt-8 inline-block rounded bg-teal-dark px-4 py-2 font-semibold text-white hover:bg-ink"
       >
         Back to the home page
       </a>

@@ -10,6 +10,7 @@ export default [
   route("reset/:token", "routes/reset.$token.tsx"),
   route("staff", "routes/staff.tsx"),
   route("settings/limits", "routes/settings.limits.tsx"),
+  route("settings", "routes/settings.tsx"),
   route("dev/outbox", "routes/dev.outbox.tsx"),
   route("dev/outbox/:id", "routes/dev.outbox.$id.tsx"),
   route("packages", "routes/packages.tsx"),

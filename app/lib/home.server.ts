@@ -34,7 +34,11 @@ export async function homeStats(
       .where("status", "in", ["draft", "quoted", "approved", "in_build", "on_dyno"])
       .select((eb) => eb.fn.countAll<number>().as("n"))
       .executeTakeFirst();
-    stats.push({ label: "My open packages", value: count(mine), to: "/packages" });
+    stats.push({
+      label: "My open packages",
+      value: count(mine),
+      to: `/packages?builder=${user.id}`,
+    });
   }
   if (can(user.role, "requests:read")) {
     const counts = await requestCounts(db);

@@ -1,6 +1,7 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/dev.outbox";
 import { PageHeader } from "~/components/ui/page-header";
+import { When } from "~/components/ui/when";
 import { requirePermission } from "~/lib/auth/auth.server";
 import { fetchOutbox, requireLocalMail, type OutboxSummary } from "~/lib/mail/outbox.server";
 
@@ -10,12 +11,6 @@ export async function loader({ request }: Route.LoaderArgs) {
   const res = await fetchOutbox<OutboxSummary[]>(base, "/messages");
   return res.ok ? { messages: res.value, problem: null } : { messages: [], problem: res.reason };
 }
-
-const timeFmt = new Intl.DateTimeFormat("en-US", {
-  dateStyle: "medium",
-  timeStyle: "medium",
-  timeZone: "UTC",
-});
 
 export default function Outbox({ loaderData }: Route.ComponentProps) {
   const { messages, problem } = loaderData;
@@ -51,7 +46,7 @@ export default function Outbox({ loaderData }: Route.ComponentProps) {
             {messages.map((m) => (
               <tr key={m.id} className="border-t border-steel-100">
                 <td className="num whitespace-nowrap px-3 py-2 text-steel-700">
-                  {timeFmt.format(new Date(m.receivedAt))}
+                  <When at={m.receivedAt} time />
                 </td>
                 <td className="px-3 py-2">{m.to.join(", ")}</td>
                 <td className="px-3 py-2">

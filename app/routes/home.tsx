@@ -1,11 +1,12 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/home";
-import { navFor } from "~/components/shell/app-header";
+import { localServicesFor, navFor } from "~/components/shell/app-header";
 import { requireUser } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
 import { env } from "~/lib/env.server";
 import { homeStats, type HomeStat } from "~/lib/home.server";
 import { can, ROLE_LABELS } from "~/lib/auth/permissions";
+import { STATUS_LABELS, statusLabel } from "~/lib/format/labels";
 import { getShopOverview } from "~/lib/shop.server";
 import { waitingOnKeepCheck } from "~/lib/keep-check/keep-check.server";
 
@@ -17,9 +18,9 @@ export async function loader({ request }: Route.LoaderArgs) {
     homeStats(db, user),
     can(user.role, "keepcheck:edit") ? waitingOnKeepCheck(db) : Promise.resolve([]),
   ]);
-  const links = navFor(user.role, { localMail: Boolean(env().LOCAL_MAIL_API_URL) }).filter(
-    (l) => l.to !== "/",
-  );
+  const localMail = Boolean(env().LOCAL_MAIL_API_URL);
+  const links = navFor(user.role, { localMail }).filter((l) => l.to !== "/");
+  const local = localServicesFor(user.role, { localMail });
   // each role gets only the shop fields it may see: the labour rate is a price
   const shopView = shop
     ? {
@@ -30,29 +31,20 @@ export async function loader({ request }: Route.LoaderArgs) {
         ...(can(user.role, "prices:read") ? { labour_rate_cents: shop.labour_rate_cents } : {}),
       }
     : null;
-  return { shop: shopView, user, stats, statuses, links, keepChecks };
+  return { shop: shopView, user, stats, statuses, links, keepChecks, local };
 }
 
-const STATUS_LABELS: Record<string, string> = {
-  draft: "Draft",
-  quoted: "Quoted",
-  approved: "Approved",
-  in_build: "In build",
-  on_dyno: "On the dyno",
-  delivered: "Delivered",
-  cancelled: "Cancelled",
-};
-const STATUS_ORDER = Object.keys(STATUS_LABELS);
+const STATUS_ORDER: string[] = Object.keys(STATUS_LABELS);
 
 const LEADS: Record<string, string> = {
-  owner: "The shop's rules, catalog, rates and staff are yours to keep.",
+  owner: "The shop's fit rules, catalog, settings and staff are yours to keep.",
   builder: "Draft packages on the spec bench, check the numbers, send quotes.",
   service_writer: "Take build requests, keep customer and bike records, send quotes.",
   apprentice: "Study the shop's published packages, with the work shown.",
 };
 
 export default function Home({ loaderData }: Route.ComponentProps) {
-  const { shop, user, stats, statuses, links, keepChecks } = loaderData;
+  const { shop, user, stats, statuses, links, keepChecks, local } = loaderData;
   return (
     <main className="mx-auto max-w-7xl px-4 py-8">
       <p className="text-sm font-semibold uppercase tracking-widest text-steel-700">
@@ -64,11 +56,13 @@ export default function Home({ loaderData }: Route.ComponentProps) {
         Hello {user.name.split(" ")[0]} — {ROLE_LABELS[user.role].toLowerCase()}. {LEADS[user.role]}
       </p>
       {stats.length > 0 ? (
-        <dl className="mt-6 grid grid-cols-2 gap-3 sm:gap-4 lg:grid-cols-4">
+        <ul className="mt-6 grid grid-cols-2 gap-3 sm:gap-4 lg:grid-cols-4">
           {stats.map((s) => (
-            <Stat key={s.label} {...s} />
+            <li key={s.label}>
+              <Stat {...s} />
+            </li>
           ))}
-        </dl>
+        </ul>
       ) : null}
       {keepChecks.length > 0 ? (
         <section aria-labelledby="keep-checks" className="mt-8">
@@ -101,11 +95,14 @@ export default function Home({ loaderData }: Route.ComponentProps) {
             {[...statuses]
               .sort((a, b) => STATUS_ORDER.indexOf(a.status) - STATUS_ORDER.indexOf(b.status))
               .map((s) => (
-                <li key={s.status} className="rounded border border-steel-200 bg-white px-4 py-2">
-                  <span className="text-sm text-steel-700">
-                    {STATUS_LABELS[s.status] ?? s.status}
-                  </span>{" "}
-                  <span className="num text-lg font-semibold text-ink">{s.n}</span>
+                <li key={s.status}>
+                  <Link
+                    to={`/packages?status=${encodeURIComponent(s.status)}`}
+                    className="inline-block rounded border border-steel-200 bg-white px-4 py-2 hover:border-teal-dark"
+                  >
+                    <span className="text-sm text-steel-700">{statusLabel(s.status)}</span>{" "}
+                    <span className="num text-lg font-semibold text-ink">{s.n}</span>
+                  </Link>
                 </li>
               ))}
           </ul>
@@ -130,6 +127,31 @@ export default function Home({ loaderData }: Route.ComponentProps) {
           </ul>
         </section>
       ) : null}
+      {local.length > 0 ? (
+        <section
+          aria-labelledby="local-h"
+          className="mt-12 rounded border border-dashed border-steel-300 p-4"
+        >
+          <h2
+            id="local-h"
+            className="text-sm font-semibold uppercase tracking-wider text-steel-700"
+          >
+            Local services
+          </h2>
+          <p className="mt-1 text-sm text-steel-700">
+            Development tools of this machine, not part of the shop&apos;s work.
+          </p>
+          <ul className="mt-2 flex flex-wrap gap-2">
+            {local.map((l) => (
+              <li key={l.to}>
+                <Link to={l.to} className="text-sm font-medium text-teal-text underline">
+                  {l.label}
+                </Link>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
     </main>
   );
 }
@@ -137,17 +159,20 @@ export default function Home({ loaderData }: Route.ComponentProps) {
 function Stat({ label, value, to, note }: HomeStat) {
   const body = (
     <>
-      <dt className="text-sm text-steel-700">{label}</dt>
-      <dd className="num mt-1 text-3xl font-semibold text-ink">{value}</dd>
-      {note ? <dd className="mt-1 text-sm text-amber-text">{note}</dd> : null}
+      <span className="block text-sm text-steel-700">{label}</span>
+      <span className="num mt-1 block text-3xl font-semibold text-ink">{value}</span>
+      {note ? <span className="mt-1 block text-sm text-amber-text">{note}</span> : null}
     </>
   );
   return to ? (
-    <Link to={to} className="block rounded border border-steel-200 bg-white p-4 hover:border-teal">
+    <Link
+      to={to}
+      className="block h-full rounded border border-steel-200 bg-white p-4 hover:border-teal-dark"
+    >
       {body}
     </Link>
   ) : (
-    <div className="rounded border border-steel-200 bg-white p-4">{body}</div>
+    <div className="h-full rounded border border-steel-200 bg-white p-4">{body}</div>
   );
 }
 

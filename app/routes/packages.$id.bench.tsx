@@ -15,6 +15,7 @@ import {
 import { useState } from "react";
 import { data, Link, useFetcher, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/packages.$id.bench";
+import { statusLabel } from "~/lib/format/labels";
 import { requireRole } from "~/lib/auth/auth.server";
 import { DB_UNREACHABLE_SAVE_MESSAGE, getDb, isDatabaseUnreachable } from "~/lib/db.server";
 import { can } from "~/lib/auth/permissions";
@@ -256,7 +257,7 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
           {header.isTemplate
             ? "Shop template"
             : `${header.customerName ?? ""} · ${header.bikeLabel ?? ""}`}{" "}
-          · {header.status.replace("_", " ")} ·{" "}
+          · {statusLabel(header.status).toLowerCase()} ·{" "}
           <span className="num" data-testid="revision">
             revision {bench.base.revision}
           </span>

@@ -9,6 +9,7 @@ import { getDb } from "~/lib/db.server";
 import { can } from "~/lib/auth/permissions";
 import {
   changeStatus,
+  getBenchState,
   getPackageHeader,
   listStatusChanges,
   EDITABLE_STATUSES,
@@ -19,6 +20,10 @@ import { parsePick } from "~/lib/packages/revisions";
 import { PACKAGE_STATUSES } from "../../db/schema/packages";
 import { StatusBadge } from "~/components/packages/status-badge";
 import { RevisionList } from "~/components/packages/revision-list";
+import { When } from "~/components/ui/when";
+import { PackageSummary } from "~/components/packages/package-summary";
+import { getUnits } from "~/lib/units-pref.server";
+import { statusLabel } from "~/lib/format/labels";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "packages:read");
@@ -32,11 +37,34 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const b = parsePick(q.get("b"));
   if ((q.get("a") && !a) || (q.get("b") && !b))
     throw data("Pick a revision (r3) or an edit (e17) to compare.", { status: 400 });
-  const [revisions, statuses, compare] = await Promise.all([
+  const [revisions, statuses, compare, state, units] = await Promise.all([
     listRevisions(db, id),
     listStatusChanges(db, id),
     a && b ? compareStates(db, id, a, b) : Promise.resolve(null),
+    getBenchState(db, id, can(user.role, "prices:read")),
+    getUnits(db, user.id),
   ]);
+  const editable = EDITABLE_STATUSES.includes(header.status);
+  const nextStep = can(user.role, "packages:edit")
+    ? editable
+      ? {
+          text: "Finish the spec on the bench: fill the empty slots, clear the conflicts, and check the cautions.",
+          link: `/packages/${header.id}/bench`,
+          label: "Open the spec bench",
+        }
+      : {
+          text: `The spec is locked while the package is ${statusLabel(header.status).toLowerCase()}; the bench shows it read-only.`,
+          link: `/packages/${header.id}/bench`,
+          label: "See the bench",
+        }
+    : {
+        text:
+          header.status === "draft"
+            ? "The builder is drafting the spec. Review the figures and findings, then move the status when the quote has gone out."
+            : "Review the figures and findings on the bench (read-only), and move the status as the work goes on.",
+        link: `/packages/${header.id}/bench`,
+        label: "See the bench",
+      };
   return {
     header,
     revisions,
@@ -46,6 +74,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     transitions: header.isTemplate ? [] : STATUS_TRANSITIONS[header.status],
     canEdit: can(user.role, "packages:edit") && EDITABLE_STATUSES.includes(header.status),
     canStatus: can(user.role, "packages:create"),
+    state,
+    units,
+    nextStep,
   };
 }
 
@@ -77,7 +108,10 @@ export async function action({ request, params }: Route.ActionArgs) {
     const user = staff;
     const out = await changeStatus(db, id, parsed.data.to, user.id);
     return out.ok
-      ? data({ ok: true as const, message: `Status is now ${parsed.data.to.replace("_", " ")}.` })
+      ? data({
+          ok: true as const,
+          message: `Status is now ${statusLabel(parsed.data.to).toLowerCase()}.`,
+        })
       : data({ ok: false as const, message: out.message }, { status: 400 });
   }
   const user = await requireRole(request, "owner", "builder");
@@ -131,7 +165,7 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
         )}
         <Link
           to={`/packages/${header.id}/bench`}
-          className="ml-auto rounded bg-teal px-3 py-1.5 font-semibold text-white hover:bg-teal-dark"
+          className="ml-auto rounded bg-teal-dark px-3 py-1.5 font-semibold text-white hover:bg-ink"
         >
           Open the spec bench
         </Link>
@@ -159,6 +193,19 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
           {actionData.message}
         </p>
       ) : null}
+      {loaderData.state ? (
+        <PackageSummary
+          id={header.id}
+          customer={header.isTemplate ? null : header.customerName}
+          bike={header.isTemplate ? null : header.bikeLabel}
+          spec={loaderData.state.spec}
+          computation={loaderData.state.computation}
+          findings={loaderData.state.findings}
+          parts={loaderData.state.parts}
+          units={loaderData.units}
+          nextStep={loaderData.nextStep}
+        />
+      ) : null}
       <div className="mt-4 grid grid-cols-1 gap-4 lg:grid-cols-[1fr_2fr]">
         <section className="rounded border border-steel-200 bg-white p-3">
           <h2 className="font-semibold text-ink">Status</h2>
@@ -173,7 +220,7 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
                   disabled={busy}
                   className="rounded border border-steel-300 px-2 py-1 text-sm font-semibold hover:bg-steel-100"
                 >
-                  Move to {t.replace("_", " ")}
+                  Move to {statusLabel(t).toLowerCase()}
                 </button>
               ))}
             </Form>
@@ -187,9 +234,11 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
           <ol className="mt-3 text-sm">
             {statuses.map((s, i) => (
               <li key={i} className="border-t border-steel-100 py-1">
-                <span className="num text-steel-700">{new Date(s.at).toLocaleString()}</span> ·{" "}
-                {s.from ? `${s.from.replace("_", " ")} → ` : ""}
-                {s.to.replace("_", " ")} · {s.by ?? "—"}
+                <span className="text-steel-700">
+                  <When at={s.at} time />
+                </span>{" "}
+                · {s.from ? `${statusLabel(s.from)} → ` : ""}
+                {statusLabel(s.to)} · {s.by ?? "—"}
               </li>
             ))}
           </ol>

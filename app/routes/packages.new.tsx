@@ -234,7 +234,7 @@ export default function NewPackage({ loaderData, actionData }: Route.ComponentPr
         ) : null}
         <button
           type="submit"
-          className="self-start rounded bg-teal px-4 py-1.5 font-semibold text-white hover:bg-teal-dark"
+          className="self-start rounded bg-teal-dark px-4 py-1.5 font-semibold text-white hover:bg-ink"
         >
           Create and open the bench
         </button>

@@ -9,6 +9,7 @@ import { can } from "~/lib/auth/permissions";
 import { listPackages, SORTS, type SortKey } from "~/lib/packages/store.server";
 import { PACKAGE_STATUSES, type PackageStatus } from "../../db/schema/packages";
 import { StatusBadge } from "~/components/packages/status-badge";
+import { statusLabel } from "~/lib/format/labels";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "packages:read");
@@ -83,7 +84,7 @@ export default function Packages({ loaderData }: Route.ComponentProps) {
         {loaderData.canCreate ? (
           <Link
             to="/packages/new"
-            className="rounded bg-teal px-3 py-1.5 font-semibold text-white hover:bg-teal-dark"
+            className="rounded bg-teal-dark px-3 py-1.5 font-semibold text-white hover:bg-ink"
           >
             New package
           </Link>
@@ -99,7 +100,7 @@ export default function Packages({ loaderData }: Route.ComponentProps) {
           value={filters.status ?? ""}
           options={[
             ["", "Any"],
-            ...PACKAGE_STATUSES.map((s) => [s, s.replace("_", " ")] as [string, string]),
+            ...PACKAGE_STATUSES.map((s) => [s, statusLabel(s)] as [string, string]),
             ["template", "shop templates"],
           ]}
         />

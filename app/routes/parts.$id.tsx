@@ -3,6 +3,7 @@ import { readForm } from "~/lib/http/body";
 import { parseId } from "~/lib/http/ids";
 import { data, Form } from "react-router";
 import type { Route } from "./+types/parts.$id";
+import { formatMoney } from "~/lib/format";
 import { PartHistory } from "~/components/catalog/history";
 import { PartForm } from "~/components/catalog/part-form";
 import { Caution, Notice } from "~/components/ui/alert";
@@ -77,8 +78,6 @@ export async function action({ request, params }: Route.ActionArgs) {
   return handlePartSave(formData, user, part.id);
 }
 
-const money = new Intl.NumberFormat("en-US", { style: "currency", currency: "USD" });
-
 export default function PartPage({ loaderData }: Route.ComponentProps) {
   const { part, history, canEdit, showPrices, categories, saved } = loaderData;
   const label = categories.find((c) => c.value === part.category)?.label ?? part.category;
@@ -112,7 +111,7 @@ export default function PartPage({ loaderData }: Route.ComponentProps) {
               {showPrices ? (
                 <>
                   <dt className="text-steel-700">Price</dt>
-                  <dd className="num text-ink">{money.format((part.price_cents ?? 0) / 100)}</dd>
+                  <dd className="num text-ink">{formatMoney(part.price_cents ?? 0)}</dd>
                 </>
               ) : null}
               <dt className="text-steel-700">Labour</dt>

@@ -1,10 +1,15 @@
 import { readForm } from "~/lib/http/body";
 import { hasControlChars } from "~/lib/http/text";
+import { useState } from "react";
 import { data, Form, useNavigation } from "react-router";
 import type { Route } from "./+types/parts.import";
 import { PageHeader } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth/auth.server";
-import { CSV_COLUMNS, MAX_CSV_BYTES } from "~/components/catalog/csv-columns";
+import { CSV_COLUMNS, EXAMPLE_CSV, MAX_CSV_BYTES } from "~/components/catalog/csv-columns";
+import { ATTRIBUTE_FIELDS, camelToSnake, unitText } from "~/lib/catalog/attributes";
+import { formatNumber } from "~/lib/format";
+import { categoryLabel } from "~/lib/format/labels";
+import { BUILT_IN_CATEGORIES } from "~/lib/packages/slots";
 import { checkPartsCsv, importPartsCsv, type CsvCheck } from "~/lib/catalog/csv.server";
 import { getDb } from "~/lib/db.server";
 
@@ -94,6 +99,7 @@ export default function ImportParts({ actionData }: Route.ComponentProps) {
   const navigation = useNavigation();
   const busy = navigation.state === "submitting";
   const check = actionData?.check && actionData.check.ok ? actionData.check : null;
+  const [file, setFile] = useState<{ name: string; size: number } | null>(null);
   return (
     <main className="mx-auto max-w-5xl px-4 py-8">
       <PageHeader
@@ -106,18 +112,45 @@ export default function ImportParts({ actionData }: Route.ComponentProps) {
         encType="multipart/form-data"
         className="mt-6 flex flex-wrap items-end gap-3 rounded border border-steel-200 bg-white p-4"
       >
-        <div>
-          <label htmlFor="file" className="block text-sm font-semibold text-graphite">
+        <div className="min-w-0 flex-1">
+          <p className="block text-sm font-semibold text-graphite" id="file-h">
             CSV file
-          </label>
-          <input
-            id="file"
-            name="file"
-            type="file"
-            accept=".csv,text/csv"
-            aria-describedby="import-message"
-            className="mt-1 block text-sm"
-          />
+          </p>
+          <div className="mt-1 flex flex-wrap items-center gap-3">
+            <label
+              htmlFor="file"
+              className="cursor-pointer rounded border border-teal-dark bg-white px-4 py-2 font-semibold text-teal-text hover:bg-steel-50 has-[:focus-visible]:outline has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-teal"
+            >
+              Choose a file…
+              <input
+                id="file"
+                name="file"
+                type="file"
+                accept=".csv,text/csv"
+                aria-labelledby="file-h"
+                aria-describedby="file-chosen import-message"
+                className="sr-only"
+                onChange={(e) => {
+                  const f = e.currentTarget.files?.[0];
+                  setFile(f ? { name: f.name, size: f.size } : null);
+                }}
+              />
+            </label>
+            <span
+              id="file-chosen"
+              className="min-w-0 break-all text-sm text-steel-700"
+              data-testid="file-chosen"
+            >
+              {file ? (
+                <>
+                  <span className="font-semibold text-ink">{file.name}</span> ·{" "}
+                  <span className="num">{fileSize(file.size)}</span>
+                </>
+              ) : (
+                "No file chosen yet"
+              )}
+            </span>
+          </div>
         </div>
         <button
           type="submit"
@@ -196,27 +229,73 @@ export default function ImportParts({ actionData }: Route.ComponentProps) {
           Columns
         </h2>
         <p className="mt-1 text-steel-700">
-          The first line names the columns (any order). Export the catalog to get a file in this
-          shape.
+          The first line names the columns, in any order. The easiest start is the example row
+          below, or an export of the catalog.
         </p>
-        <table className="mt-2 w-full">
-          <tbody>
-            {CSV_COLUMNS.map((c) => (
-              <tr key={c.name} className="border-t border-steel-100 align-top">
-                <td className="py-1 pr-3 font-mono text-ink">{c.name}</td>
-                <td className="py-1 pr-3 text-steel-700">{c.required ? "required" : "optional"}</td>
-                <td className="py-1 text-graphite">{c.description}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+        <p className="mt-2">
+          <a
+            href={`data:text/csv;charset=utf-8,${encodeURIComponent(EXAMPLE_CSV)}`}
+            download="example-parts.csv"
+            className="font-semibold text-teal-text underline"
+          >
+            Download an example row (CSV)
+          </a>
+        </p>
+        <dl className="mt-3 divide-y divide-steel-100">
+          {CSV_COLUMNS.map((c) => (
+            <div key={c.name} className="py-1.5 sm:grid sm:grid-cols-[11rem_1fr] sm:gap-3">
+              <dt>
+                <code className="font-mono text-ink">{c.name}</code>{" "}
+                <span className="text-xs text-steel-700">
+                  {c.required ? "needed" : "may be empty"}
+                </span>
+              </dt>
+              <dd className="text-graphite">{c.description}</dd>
+            </div>
+          ))}
+        </dl>
+        <h3 className="mt-4 font-semibold text-ink">Kinds of part and their measurements</h3>
+        <p className="text-steel-700">
+          Write the kind in the <code className="font-mono">category</code> column and the
+          measurements in the <code className="font-mono">attributes</code> column, for example{" "}
+          <code className="font-mono">bore_mm=104.8</code>.
+        </p>
+        <ul className="mt-2 grid gap-1 sm:grid-cols-2">
+          {BUILT_IN_CATEGORIES.map((k) => {
+            const attrs = ATTRIBUTE_FIELDS[k.slug] ?? [];
+            return (
+              <li key={k.slug} className="rounded border border-steel-100 px-2 py-1">
+                <span className="font-semibold text-ink">{categoryLabel(k.slug)}</span>:{" "}
+                <code className="font-mono break-all">{k.slug}</code>
+                {attrs.length > 0 ? (
+                  <span className="block text-xs text-steel-700">
+                    {attrs.map((f, i) => (
+                      <span key={f.key}>
+                        {i > 0 ? "; " : ""}
+                        {f.label.toLowerCase()}{" "}
+                        <code className="font-mono break-all">{camelToSnake(f.key)}</code> (
+                        {unitText(f.unit)}){f.required ? "" : ", optional"}
+                      </span>
+                    ))}
+                  </span>
+                ) : null}
+              </li>
+            );
+          })}
+        </ul>
         <p className="mt-2 text-steel-700">
-          Cells that begin with = + - @ are exported with a leading apostrophe so a spreadsheet
-          shows them as text.
+          A cell that begins with = + - or @ is exported with an apostrophe in front, so a
+          spreadsheet shows it as text instead of running it.
         </p>
       </section>
     </main>
   );
+}
+
+function fileSize(bytes: number): string {
+  if (bytes < 1024) return `${bytes} bytes`;
+  if (bytes < 1024 * 1024) return `${formatNumber(bytes / 1024, 0, 1)} KB`;
+  return `${formatNumber(bytes / 1024 / 1024, 0, 1)} MB`;
 }
 
 export function meta(_: Route.MetaArgs) {

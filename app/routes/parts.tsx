@@ -5,6 +5,7 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/parts";
+import { formatMoney } from "~/lib/format";
 import { buttonClass } from "~/components/ui/button";
 import { controlClass, Field } from "~/components/ui/field";
 import { PageHeader } from "~/components/ui/page-header";
@@ -86,8 +87,6 @@ export async function action({ request }: Route.ActionArgs) {
     );
   return { result: submission.reply({ resetForm: true }), added: r.slug };
 }
-
-const money = new Intl.NumberFormat("en-US", { style: "currency", currency: "USD" });
 
 export default function Parts({ loaderData, actionData }: Route.ComponentProps) {
   const { rows, search, categories, total, pages, showPrices, canEdit } = loaderData;
@@ -236,7 +235,7 @@ export default function Parts({ loaderData, actionData }: Route.ComponentProps) 
                 <td className="px-3 py-2 font-mono text-xs text-steel-700">{r.tags.join(" ")}</td>
                 {showPrices ? (
                   <td className="num px-3 py-2 text-right">
-                    {r.price_cents === null ? "" : money.format(r.price_cents / 100)}
+                    {r.price_cents === null ? "" : formatMoney(r.price_cents)}
                   </td>
                 ) : null}
                 <td className="num px-3 py-2 text-right">{r.labour_hours} h</td>

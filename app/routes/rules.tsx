@@ -1,5 +1,6 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/rules";
+import { When } from "~/components/ui/when";
 import { KindBadge } from "~/components/fit-rules/kind-badge";
 import { WithReference } from "~/components/fit-rules/with-reference";
 import { Caution } from "~/components/ui/alert";
@@ -11,26 +12,34 @@ import { listRules } from "~/lib/fit-rules/rules.server";
 import { can } from "~/lib/auth/permissions";
 
 const iso = (d: unknown) => new Date(d as string).toISOString();
+const KIND_ORDER: Record<string, number> = { conflict: 0, upgrade: 1, caution: 2 };
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "rules:read");
   const rules = await listRules(getDb());
   return {
     canEdit: can(user.role, "rules:edit"),
-    rules: rules.map((r) => ({
-      id: r.id,
-      name: r.name,
-      kind: r.kind,
-      condition: r.condition,
-      active: r.active,
-      version: r.version,
-      updated_at: iso(r.updated_at),
-      updated_by_name: r.updated_by_name,
-    })),
+    // as the page says: conflicts first, then upgrades, then cautions; active before
+    // inactive, then by name
+    rules: [...rules]
+      .sort(
+        (a, b) =>
+          KIND_ORDER[a.kind] - KIND_ORDER[b.kind] ||
+          Number(b.active) - Number(a.active) ||
+          a.name.localeCompare(b.name),
+      )
+      .map((r) => ({
+        id: r.id,
+        name: r.name,
+        kind: r.kind,
+        condition: r.condition,
+        active: r.active,
+        version: r.version,
+        updated_at: iso(r.updated_at),
+        updated_by_name: r.updated_by_name,
+      })),
   };
 }
-
-const dateFmt = new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeZone: "UTC" });
 
 export default function Rules({ loaderData }: Route.ComponentProps) {
   const { rules, canEdit } = loaderData;
@@ -67,8 +76,8 @@ export default function Rules({ loaderData }: Route.ComponentProps) {
                 <tr>
                   <th className="px-3 py-2">Kind</th>
                   <th className="px-3 py-2">Rule</th>
-                  <th className="px-3 py-2">Version</th>
-                  <th className="px-3 py-2">Changed</th>
+                  <th className="hidden px-3 py-2 sm:table-cell">Version</th>
+                  <th className="hidden px-3 py-2 sm:table-cell">Changed</th>
                 </tr>
               </thead>
               <tbody>
@@ -92,10 +101,15 @@ export default function Rules({ loaderData }: Route.ComponentProps) {
                       <code className="mt-0.5 block break-all font-mono text-xs text-steel-700">
                         {r.condition}
                       </code>
+                      {/* on a phone, version and change sit under the rule */}
+                      <span className="mt-0.5 block text-xs text-steel-700 sm:hidden">
+                        version {r.version} · changed <When at={r.updated_at} />
+                        {r.updated_by_name ? ` by ${r.updated_by_name}` : ""}
+                      </span>
                     </td>
-                    <td className="num px-3 py-2">v{r.version}</td>
-                    <td className="px-3 py-2 text-steel-700">
-                      <span className="num">{dateFmt.format(new Date(r.updated_at))}</span>
+                    <td className="num hidden px-3 py-2 sm:table-cell">v{r.version}</td>
+                    <td className="hidden px-3 py-2 text-steel-700 sm:table-cell">
+                      <When at={r.updated_at} />
                       {r.updated_by_name ? (
                         <span className="block">{r.updated_by_name}</span>
                       ) : null}

@@ -9,6 +9,7 @@ import { FormAlert, formErrorsOf, Notice } from "~/components/ui/alert";
 import { SubmitButton } from "~/components/ui/button";
 import { SelectField, TextField } from "~/components/ui/field";
 import { PageHeader } from "~/components/ui/page-header";
+import { When } from "~/components/ui/when";
 import { requirePermission } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
 import { ROLE_LABELS, ROLES, type Role } from "~/lib/auth/permissions";
@@ -100,12 +101,6 @@ export async function action({ request }: Route.ActionArgs) {
   }
 }
 
-const dateFmt = new Intl.DateTimeFormat("en-US", {
-  dateStyle: "medium",
-  timeStyle: "short",
-  timeZone: "UTC",
-});
-
 export default function Staff({ loaderData }: Route.ComponentProps) {
   const { staff, invites, me } = loaderData;
   return (
@@ -140,7 +135,7 @@ export default function Staff({ loaderData }: Route.ComponentProps) {
                     <p className="font-medium text-ink">{i.email}</p>
                     <p className="text-steel-700">
                       {ROLE_LABELS[i.role ?? "apprentice"]} · expires{" "}
-                      <span className="num">{dateFmt.format(new Date(i.expires_at))} UTC</span>
+                      <When at={i.expires_at} time />
                     </p>
                     <Form method="post" className="mt-1">
                       <input type="hidden" name="intent" value="revoke" />
@@ -251,17 +246,21 @@ function StaffRow({ user, isMe }: { user: StaffUser; isMe: boolean }) {
           Save role
         </button>
       </fetcher.Form>
-      <fetcher.Form method="post">
-        <input type="hidden" name="intent" value={disabled ? "enable" : "disable"} />
-        <input type="hidden" name="userId" value={user.id} />
-        <button
-          type="submit"
-          disabled={busy}
-          className={`rounded px-3 py-2 text-sm font-semibold ${disabled ? "bg-teal-dark text-white hover:bg-ink" : "border border-red text-red-text hover:bg-steel-50"}`}
-        >
-          {disabled ? "Enable" : "Disable"}
-        </button>
-      </fetcher.Form>
+      {isMe ? (
+        <p className="text-sm text-steel-700">Your own account cannot be disabled here.</p>
+      ) : (
+        <fetcher.Form method="post">
+          <input type="hidden" name="intent" value={disabled ? "enable" : "disable"} />
+          <input type="hidden" name="userId" value={user.id} />
+          <button
+            type="submit"
+            disabled={busy}
+            className={`rounded px-3 py-2 text-sm font-semibold ${disabled ? "bg-teal-dark text-white hover:bg-ink" : "border border-red text-red-text hover:bg-steel-50"}`}
+          >
+            {disabled ? "Enable" : "Disable"}
+          </button>
+        </fetcher.Form>
+      )}
     </li>
   );
 }

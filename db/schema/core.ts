@@ -14,7 +14,29 @@ export interface ShopTable {
   labour_rate_cents: number;
   /** Minutes without an edit after which a package's open revision closes (default 60). */
   revision_quiet_minutes: Generated<number>;
+  address: Generated<string>;
+  /** basis points: 825 = 8.25 % */
+  tax_rate_bp: Generated<number>;
+  deposit_kind: Generated<DepositKind>;
+  /** basis points of the quote for "percent", cents for "fixed" */
+  deposit_value: Generated<number>;
+  /** IANA zone the shop's dates are shown in */
+  time_zone: Generated<string>;
   created_at: Generated<Timestamp>;
+  updated_at: Timestamp;
+}
+
+export const DEPOSIT_KINDS = ["percent", "fixed"] as const;
+export type DepositKind = (typeof DEPOSIT_KINDS)[number];
+
+export interface ShopSettingChangeTable {
+  id: Generated<number>;
+  shop_id: number;
+  field: string;
+  before: string;
+  after: string;
+  changed_by: number | null;
+  changed_at: Timestamp;
 }
 
 export interface UserTable {
@@ -56,6 +78,7 @@ export interface BikeTable {
 
 export interface CoreTables {
   shop: ShopTable;
+  shop_setting_changes: ShopSettingChangeTable;
   users: UserTable;
   customers: CustomerTable;
   bikes: BikeTable;

@@ -9,6 +9,11 @@ export const DEMO_SHOP = {
   phone: "555-0142",
   email: "shop@tallgrass.test",
   labour_rate_cents: 13500,
+  address: "410 Prairie Rail Road, Millbrook Falls",
+  tax_rate_bp: 825,
+  deposit_kind: "percent" as const,
+  deposit_value: 3000,
+  time_zone: "America/Chicago",
 };
 
 export const DEMO_STAFF = [

@@ -333,6 +333,8 @@ export const ROWS: Row[] = [
     body: { meanPistonSpeedMaxMs: "" },
     expect: staffOnly("owner"),
   },
+  { path: "/settings", expect: staffOnly("owner") },
+  { path: "/settings", method: "POST", body: { name: "" }, expect: staffOnly("owner") },
   { path: "/dev/outbox", expect: staffOnly("owner") },
   { path: "/dev/outbox/999999", expect: { ...staffOnly("owner"), owner: 404 } },
   { path: "/packages", expect: staffOnly("owner", "builder", "service_writer") },

@@ -15,18 +15,25 @@ export function BenchSummary({
   pending: boolean;
 }) {
   const r = computation.results;
-  const disp =
-    units === "inch"
-      ? { text: r.displacementCi === null ? "—" : r.displacementCi.toFixed(1), unit: "ci" }
-      : { text: r.displacementCc === null ? "—" : r.displacementCc.toFixed(0), unit: "cc" };
+  const disp = show(r.displacementCc, "volume", units);
   const figures = [
     { label: "Displ.", ...disp },
     { label: "Static", ...show(r.staticCr, "ratio", units) },
     { label: "Dynamic", ...show(r.dynamicCr, "ratio", units) },
     { label: "Quench", ...show(r.quenchMm, "length", units) },
   ];
-  const conflicts = findings.filter((f) => f.kind === "conflict" && !f.error).length;
-  const upgrades = findings.filter((f) => f.kind === "upgrade" && !f.error).length;
+  const count = (k: BenchFinding["kind"]) =>
+    findings.filter((f) => f.kind === k && !f.error).length;
+  const conflicts = count("conflict");
+  const upgrades = count("upgrade");
+  // the fit rules' cautions and calc's own limits are both cautions to the reader
+  const cautions = count("caution") + computation.cautions.length;
+  const kinds = [
+    [conflicts, "conflict"],
+    [upgrades, "upgrade"],
+    [cautions, "caution"],
+  ] as const;
+  const said = kinds.filter(([n]) => n > 0).map(([n, w]) => `${n} ${w}${n > 1 ? "s" : ""}`);
   return (
     <a
       href="#results-h"
@@ -48,11 +55,7 @@ export function BenchSummary({
         <span
           className={`text-sm font-semibold ${conflicts ? "text-[#ff9d97]" : upgrades ? "text-[#ffd27a]" : "text-white"}`}
         >
-          {conflicts
-            ? `${conflicts} conflict${conflicts > 1 ? "s" : ""}`
-            : upgrades
-              ? `${upgrades} upgrade${upgrades > 1 ? "s" : ""}`
-              : "none tripped"}
+          {said.length ? said.join(" · ") : "none tripped"}
         </span>
       </span>
     </a>

@@ -1,7 +1,9 @@
 // A schematic section of one cylinder at top dead centre, drawn from the package's
 // numbers: barrel (bore), head chamber, gasket, piston crown with dome or dish, rod and
 // crank throw (stroke). Lengths are to scale; deck and gasket are drawn six times
-// thicker so they can be read. Missing figures are drawn at typical sizes, dashed.
+// thicker so they can be read. Missing figures are drawn at typical sizes, dashed. Each
+// label sits beside the part it names: bore across the barrel's top, rod along the rod,
+// stroke beside the crank pin's circle.
 import type { Resolved } from "~/lib/bench/spec";
 import { fmtLine, type Units } from "~/lib/bench/units";
 
@@ -34,7 +36,7 @@ export function EngineSection({ fields, deckClearanceMm, units }: SectionNumbers
   const gt = Math.max(gThick.v * THIN * S, 1.5);
   const dk = deck.v * THIN * S;
 
-  const headTop = 8;
+  const headTop = 26; // room above the head for the bore's dimension line
   const gasketTop = headTop + 22 + chamberDepth;
   const deckY = gasketTop + gt;
   const crownY = deckY + dk;
@@ -44,13 +46,13 @@ export function EngineSection({ fields, deckClearanceMm, units }: SectionNumbers
   const throwR = (stroke.v / 2) * S;
   const crankY = crankPinY + throwR;
   const wheelR = throwR + 20;
-  const height = Math.ceil(crankY + wheelR + 10);
+  const height = Math.ceil(crankY + wheelR + 34);
   const wall = 12;
   const barrelBottom = crownY + pistonH + stroke.v * S * 0.55;
   const gasketIntrudes = gBore.v < bore.v;
   const gb = gBore.v * S;
 
-  const label = `Section of one cylinder: bore ${fmtLine(bore.v, "length", units)}, stroke ${fmtLine(stroke.v, "length", units)}, rod ${fmtLine(rod.v, "length", units)}, deck ${fmtLine(deck.v, "length", units)}, gasket ${fmtLine(gThick.v, "length", units)}${dome ? `, ${dome > 0 ? "dome" : "dish"} ${Math.abs(dome).toFixed(1)} cc` : ""}.`;
+  const label = `Section of one cylinder: bore ${fmtLine(bore.v, "length", units)}, stroke ${fmtLine(stroke.v, "length", units)}, rod ${fmtLine(rod.v, "length", units)}, deck ${fmtLine(deck.v, "length", units)}, gasket ${fmtLine(gThick.v, "length", units)}${dome ? `, ${dome > 0 ? "dome" : "dish"} ${fmtLine(Math.abs(dome), "smallVolume", units)}` : ""}. Drawn to scale, except deck clearance and gasket, drawn ${THIN} times thicker.`;
 
   return (
     <svg
@@ -152,23 +154,72 @@ export function EngineSection({ fields, deckClearanceMm, units }: SectionNumbers
         paintOrder="stroke"
         strokeLinejoin="round"
       >
+        {/* bore: across the barrel, above the head */}
         <line
           x1={CX - b / 2}
-          y1={barrelBottom + 8}
+          y1={16}
           x2={CX + b / 2}
-          y2={barrelBottom + 8}
+          y2={16}
           stroke="#f4f6f8"
           strokeWidth="0.8"
           paintOrder="normal"
         />
-        <text x={CX} y={barrelBottom + 19} textAnchor="middle">
+        {[CX - b / 2, CX + b / 2].map((x) => (
+          <line
+            key={x}
+            x1={x}
+            y1={12}
+            x2={x}
+            y2={headTop + 4}
+            stroke="#f4f6f8"
+            strokeWidth="0.8"
+            paintOrder="normal"
+          />
+        ))}
+        <text x={CX} y={12} textAnchor="middle" data-testid="label-bore">
           bore {fmtLine(bore.v, "length", units)}
         </text>
-        <text x={W - 6} y={crankY + 3} textAnchor="end">
+        {/* rod: along the rod, between the pins */}
+        <text x={CX + 9} y={(pinY + crankPinY) / 2} data-testid="label-rod">
+          rod {fmtLine(rod.v, "length", units)}
+        </text>
+        {/* stroke: the crank pin's circle is the stroke across */}
+        <line
+          x1={W - 12}
+          y1={crankY - throwR}
+          x2={W - 12}
+          y2={crankY + throwR}
+          stroke="#0f8b8d"
+          strokeWidth="1"
+          paintOrder="normal"
+        />
+        {[crankY - throwR, crankY + throwR].map((y) => (
+          <line
+            key={y}
+            x1={CX}
+            y1={y}
+            x2={W - 8}
+            y2={y}
+            stroke="#0f8b8d"
+            strokeWidth="0.6"
+            strokeDasharray="2 2"
+            paintOrder="normal"
+          />
+        ))}
+        <text
+          x={W - 15}
+          y={crankY}
+          textAnchor="middle"
+          transform={`rotate(-90 ${W - 15} ${crankY})`}
+          data-testid="label-stroke"
+        >
           stroke {fmtLine(stroke.v, "length", units)}
         </text>
-        <text x={8} y={height - 6} fill="#9aa7b4">
-          deck and gasket ×{THIN}
+        <text x={8} y={height - 18} fill="#c5ced8" data-testid="label-scale">
+          To scale, except deck clearance and
+        </text>
+        <text x={8} y={height - 7} fill="#c5ced8">
+          gasket: drawn {THIN} times thicker to be seen.
         </text>
       </g>
     </svg>

@@ -4,7 +4,12 @@ import { useDraggable } from "@dnd-kit/core";
 import { useEffect, useId, useRef, useState } from "react";
 import { useFetcher } from "react-router";
 import type { BenchPart } from "~/lib/bench/spec";
+import { formatMoney } from "~/lib/format";
+import { categoryLabel } from "~/lib/format/labels";
 import { SLOTS } from "~/lib/packages/slots";
+
+// only parts a slot of this bench takes; the rest of the catalog waits for its slots
+const SLOT_CATEGORIES: ReadonlySet<string> = new Set(SLOTS.map((s) => s.category));
 
 const DEBOUNCE_MS = 200;
 
@@ -31,7 +36,9 @@ export function PartsShelf({
     return () => clearTimeout(timer.current);
   }, [q, category, load]);
 
-  const parts = fetcher.data?.parts ?? [];
+  const found = fetcher.data?.parts ?? [];
+  const parts = found.filter((p) => SLOT_CATEGORIES.has(p.category));
+  const others = found.length - parts.length;
   useEffect(() => {
     if (fetcher.data?.parts) onParts(fetcher.data.parts);
     // eslint-disable-next-line react-hooks/exhaustive-deps
@@ -46,7 +53,7 @@ export function PartsShelf({
       >
         Parts shelf
       </h2>
-      <div className="flex gap-1">
+      <div className="flex flex-col gap-1">
         <label htmlFor={searchId} className="sr-only">
           Search parts
         </label>
@@ -56,7 +63,8 @@ export function PartsShelf({
           value={q}
           onChange={(e) => setQ(e.target.value)}
           placeholder="Search number, name, tag…"
-          className="min-w-0 flex-1 rounded border border-steel-300 bg-white px-2 py-1 text-sm"
+          title="Search by part number, name, maker or tag"
+          className="w-full rounded border border-steel-300 bg-white px-2 py-1 text-sm"
         />
         <label htmlFor={`${searchId}-cat`} className="sr-only">
           Category
@@ -65,7 +73,7 @@ export function PartsShelf({
           id={`${searchId}-cat`}
           value={category}
           onChange={(e) => setCategory(e.target.value)}
-          className="w-32 rounded border border-steel-300 bg-white px-1 py-1 text-sm"
+          className="w-full rounded border border-steel-300 bg-white px-1 py-1 text-sm"
         >
           <option value="">All categories</option>
           {categories.map((c) => (
@@ -78,11 +86,21 @@ export function PartsShelf({
       <p className="text-xs text-steel-700" aria-live="polite">
         {fetcher.state === "loading"
           ? "Searching…"
-          : `${parts.length} part${parts.length === 1 ? "" : "s"}`}
-        {canEdit
+          : `${parts.length} part${parts.length === 1 ? "" : "s"} for this bench's slots`}
+        {others > 0 && fetcher.state !== "loading"
+          ? ` · ${others} more in the catalog fit no slot here yet`
+          : ""}
+        {canEdit && parts.length > 0
           ? " · drag a card onto its slot, or focus it and press Space, an arrow, then Space"
           : ""}
       </p>
+      {parts.length === 0 && fetcher.state === "idle" && fetcher.data ? (
+        <p className="rounded border border-dashed border-steel-300 bg-white p-2 text-sm text-steel-700">
+          {q || category
+            ? `Nothing matches${q ? ` "${q}"` : ""}${category ? ` in ${categoryLabel(category)}` : ""}. Try part of the number (e.g. the maker's prefix), a shorter word, or "All categories".`
+            : "The catalog has no part for these slots yet. Add parts on the Parts page."}
+        </p>
+      ) : null}
       <ul
         className="flex max-h-[70vh] flex-col gap-1.5 overflow-y-auto pr-1"
         data-testid="shelf-list"
@@ -103,7 +121,7 @@ export function PartCard({ part, canEdit }: { part: BenchPart; canEdit: boolean 
     data: { part },
     disabled: !canEdit,
   });
-  const category = SLOTS.find((s) => s.category === part.category)?.label ?? part.category;
+  const category = categoryLabel(part.category);
   return (
     <div
       ref={setNodeRef}
@@ -124,7 +142,7 @@ export function PartCardBody({ part, category }: { part: BenchPart; category: st
       <div className="flex items-baseline justify-between gap-2">
         <span className="font-medium text-ink">{part.name}</span>
         {part.priceCents != null ? (
-          <span className="num text-xs text-steel-700">${(part.priceCents / 100).toFixed(2)}</span>
+          <span className="num text-xs text-steel-700">{formatMoney(part.priceCents)}</span>
         ) : null}
       </div>
       <div className="flex flex-wrap gap-x-2 text-xs text-steel-700">

@@ -18,7 +18,8 @@ import {
   type BenchPart,
   type Resolved,
 } from "~/lib/bench/spec";
-import { show, type Quantity, type Units } from "~/lib/bench/units";
+import { fmtLine, show, type Quantity, type Units } from "~/lib/bench/units";
+import { formatNumber, tidySigns } from "~/lib/format";
 import { SLOTS } from "~/lib/packages/slots";
 
 const ROWS: { key: keyof SpecResults; label: string; q: Quantity | "ci" | "cc" | "plain" }[] = [
@@ -34,11 +35,9 @@ const ROWS: { key: keyof SpecResults; label: string; q: Quantity | "ci" | "cc" |
 ];
 
 function cell(v: number | null, q: (typeof ROWS)[number]["q"], units: Units) {
-  if (q === "ci")
-    return v === null ? { text: "—", unit: "ci" } : { text: v.toFixed(1), unit: "ci" };
-  if (q === "cc")
-    return v === null ? { text: "—", unit: "cc" } : { text: v.toFixed(0), unit: "cc" };
-  if (q === "plain") return { text: v === null ? "—" : v.toFixed(3), unit: "" };
+  // both displacements stay on the panel: ci and cc are the trade's two names for it
+  if (q === "ci") return { text: v === null ? "—" : formatNumber(v, 1), unit: "ci" };
+  if (q === "cc") return { text: v === null ? "—" : formatNumber(v, 0), unit: "cc" };
   return show(v, q, units);
 }
 
@@ -69,6 +68,9 @@ export function ResultsPanel(props: {
     .filter((f) => !f.error)
     .sort((a, b) => order[a.kind] - order[b.kind]);
   const unchecked = props.findings.filter((f) => f.error);
+  // a value set aside as a conflict is there, just wrong: it is not "still needed"
+  const refused = new Set(c.inputErrors.map((e) => e.field));
+  const missing = c.missing.filter((m) => !refused.has(m));
   return (
     <section aria-labelledby="results-h" className="flex flex-col gap-3">
       <div className="flex items-center justify-between">
@@ -108,7 +110,7 @@ export function ResultsPanel(props: {
               <dt className="text-xs text-steel-700">{r.label}</dt>
               <dd className="num text-lg font-semibold text-ink">
                 {v.text}
-                {v.unit ? (
+                {v.unit && v.text !== "—" ? (
                   <span className="ml-1 text-xs font-normal text-steel-700">{v.unit}</span>
                 ) : null}
               </dd>
@@ -123,9 +125,9 @@ export function ResultsPanel(props: {
       ) : (
         <p className="text-xs text-steel-700">Set a rev limit to see piston speeds.</p>
       )}
-      {c.missing.length > 0 ? (
+      {missing.length > 0 ? (
         <p className="text-xs text-steel-700">
-          Still needed for every figure: {c.missing.map(fieldLabel).join(", ")}.
+          Still needed for every figure: {missing.map(fieldLabel).join(", ")}.
         </p>
       ) : null}
       {c.inputErrors.length > 0 ? (
@@ -135,7 +137,8 @@ export function ResultsPanel(props: {
         >
           {c.inputErrors.map((e, i) => (
             <li key={i}>
-              Not computed: {fieldLabel(e.field)} {e.message}.
+              <span className="font-semibold">Conflict: </span>
+              {inputErrorSentence(e, props.fields, units)}
             </li>
           ))}
         </ul>
@@ -201,13 +204,14 @@ export function ResultsPanel(props: {
       </div>
 
       <Solver
+        units={units}
         fields={props.fields}
         deckClearanceMm={props.deckClearanceMm}
         canEdit={props.canEdit}
         onUse={props.onUseSolved}
       />
 
-      <WorkShown input={props.input} />
+      <WorkShown input={props.input} units={units} />
       <p className="text-xs text-steel-700" data-testid="bench-disclaimer">
         Figures are for planning. Torque values and limits come from the parts maker's instructions;
         compression against fuel is the tuner's call; brakes, axles and suspension are checked by a
@@ -217,7 +221,17 @@ export function ResultsPanel(props: {
   );
 }
 
-function WorkShown({ input }: { input: SpecInput }) {
+// what a worked step's SI unit reads as in the user's system
+const STEP_QUANTITY: Record<string, Quantity> = { mm: "length", "m/s": "speed" };
+
+function stepResult(value: number, unit: string, units: Units): string {
+  const q = STEP_QUANTITY[unit];
+  const si = `${Number(value.toPrecision(6))} ${unit}`.trim();
+  if (!q || units === "metric") return si;
+  return `${si} (${fmtLine(value, q, units)})`;
+}
+
+function WorkShown({ input, units }: { input: SpecInput; units: Units }) {
   const [open, setOpen] = useState(false);
   // built only while open: the server sends figures, not their worked steps
   const steps = useMemo(() => (open ? benchSteps(input) : []), [open, input]);
@@ -233,12 +247,16 @@ function WorkShown({ input }: { input: SpecInput }) {
             <p className="font-medium">{s.label}</p>
             <p className="num font-mono text-xs text-steel-700">{s.formula}</p>
             <p className="num font-mono text-xs">
-              {s.substituted}
-              {s.result !== null ? ` = ${Number(s.result.toPrecision(6))} ${s.unit}` : ""}
+              {tidySigns(s.substituted)}
+              {s.result !== null ? ` = ${stepResult(s.result, s.unit, units)}` : ""}
             </p>
           </li>
         ))}
       </ol>
+      <p className="mt-2 text-xs text-steel-700">
+        The work is written in millimetres and cubic centimetres, as the formulas are
+        {units === "inch" ? "; each result is also given in inches" : ""}.
+      </p>
       <p className="mt-2 text-xs text-steel-700">{DCR_NOTE}</p>
     </details>
   );
@@ -283,7 +301,7 @@ function FindingItem({
         <button
           type="button"
           onClick={() => onUse(slot.key, f.suggestedPartId!)}
-          className="mt-1 rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark"
+          className="mt-1 rounded bg-teal-dark px-2 py-0.5 text-xs font-semibold text-white hover:bg-ink"
         >
           Use suggested part
         </button>
@@ -304,6 +322,7 @@ const SOLVE = {
 } as const;
 
 function Solver(props: {
+  units: Units;
   fields: Resolved;
   deckClearanceMm: number | null;
   canEdit: boolean;
@@ -357,7 +376,9 @@ function Solver(props: {
       {answer.ok ? (
         <p className="mt-1" data-testid="solver-answer">
           <span className="num font-semibold">
-            {answer.value.toFixed(field === "gasketThicknessMm" ? 3 : 1)} {SOLVE[field].unit}
+            {field === "gasketThicknessMm"
+              ? fmtLine(answer.value, "length", props.units)
+              : fmtLine(answer.value, "smallVolume", props.units)}
           </span>
           {field === "pistonDomeCc" ? (
             <span className="text-steel-700"> ({answer.value >= 0 ? "dome" : "dish"})</span>
@@ -366,15 +387,15 @@ function Solver(props: {
             <button
               type="button"
               onClick={() => props.onUse(SOLVE[field].slot, field, Number(answer.value.toFixed(3)))}
-              className="ml-2 rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark"
+              className="ml-2 rounded bg-teal-dark px-2 py-0.5 text-xs font-semibold text-white hover:bg-ink"
             >
               Use as measured value
             </button>
           ) : null}
         </p>
       ) : (
-        <p className="mt-1 text-xs text-steel-700">
-          Needs: {answer.errors.map((e) => `${fieldLabel(e.field)} ${e.message}`).join("; ")}
+        <p className="mt-1 text-xs text-steel-700" data-testid="solver-refusal">
+          {solverRefusal(answer.errors, SOLVE[field].label, target)}
         </p>
       )}
     </div>
@@ -409,4 +430,69 @@ function plainRuleError(error: string): string {
   const m = /^([a-z_.]+) has no value in this package$/.exec(error);
   if (!m) return error;
   return `needs ${RULE_NUMBER_LABELS[m[1]!] ?? m[1]!.replace(/_/g, " ")}, which this package does not have yet`;
+}
+
+/** A refused solve as a builder would say it. */
+function solverRefusal(
+  errors: readonly { field: string; message: string }[],
+  solving: string,
+  target: string,
+): string {
+  const missing = errors.filter((e) => e.message === "is required").map((e) => fieldLabel(e.field));
+  const said: string[] = [];
+  if (errors.some((e) => e.field === "target" && e.message.startsWith("must be")))
+    said.push("Type a target ratio above 1, for example 10.5.");
+  else if (errors.some((e) => e.field === "target"))
+    said.push(
+      `No ${solving.toLowerCase()} can give ${target}:1 on this engine; try a target nearer today's ratio.`,
+    );
+  if (missing.length > 0)
+    said.push(
+      `To solve for the ${solving.toLowerCase()}, first fill in: ${missing.join(", ").toLowerCase()}.`,
+    );
+  for (const e of errors) {
+    if (e.field === "target" || e.message === "is required") continue;
+    if (/^no gasket thickness/.test(e.message))
+      said.push(
+        `No gasket is thin enough for ${target}:1 with these parts. A smaller chamber or a bigger dome would get there.`,
+      );
+    else if (/piston crown reach the head/.test(e.message))
+      said.push(
+        `The gasket ${target}:1 needs is so thin the piston would touch the head. Choose a smaller chamber or a bigger dome.`,
+      );
+    else if (/^no chamber reaches/.test(e.message))
+      said.push(
+        `No chamber is small enough for ${target}:1 with these parts. A dome or a thinner gasket would get there.`,
+      );
+    else if (e.field === "pistonDomeCc" && /no finite answer/.test(e.message))
+      said.push(`No dome or dish gives ${target}:1 with these parts.`);
+    else if (e.field === "gasketBoreMm")
+      said.push(
+        "The gasket's bore is smaller than the cylinder bore: fit a gasket made for this bore first.",
+      );
+    else said.push(`${fieldLabel(e.field)} ${e.message}.`);
+  }
+  return said.join(" ");
+}
+
+/** calc's refusal of a typed or catalog value, as a sentence with the values in the user's units. */
+function inputErrorSentence(
+  e: { field: string; message: string },
+  f: Resolved,
+  units: Units,
+): string {
+  if (e.field === "gasketBoreMm" && /smaller than the cylinder bore/.test(e.message))
+    return (
+      `the head gasket's bore (${fmtLine(f.gasketBoreMm.value, "length", units)}) is smaller than ` +
+      `the cylinder bore (${fmtLine(f.boreMm.value, "length", units)}), so its edge would stand ` +
+      "into the bore. Fit a gasket made for this bore. Static and dynamic compression wait for it; " +
+      "the other figures are computed."
+    );
+  if (e.field === "rodLengthMm")
+    return "the rod is shorter than half the stroke, which cannot turn a crank. Check the rod and the flywheel.";
+  if (e.field === "deckClearanceMm")
+    return "the piston crown would reach the head: deck clearance plus gasket thickness must be more than zero.";
+  if (e.field === "pistonDomeCc")
+    return "the dome fills the whole chamber, gasket and deck volume, leaving no room at the top of the stroke.";
+  return `${fieldLabel(e.field)} ${e.message}; the figures that need it are left out.`;
 }

@@ -79,7 +79,9 @@ export function SlotCard(props: {
             ) : null}
           </>
         ) : (
-          <span className="italic">Empty — drop a part here or pick one</span>
+          <span className="italic">
+            {canEdit ? "Empty — drop a part here or pick one" : "Empty"}
+          </span>
         )}
       </p>
       {canEdit ? (
@@ -205,7 +207,7 @@ function MeasuredRow(props: {
           <span className="text-xs text-steel-700">{unit}</span>
           <button
             type="submit"
-            className="rounded bg-teal px-2 py-0.5 text-xs font-semibold text-white hover:bg-teal-dark"
+            className="rounded bg-teal-dark px-2 py-0.5 text-xs font-semibold text-white hover:bg-ink"
           >
             Save
           </button>

@@ -1,5 +1,6 @@
 // Shown when a save was refused because someone else saved first: what they changed,
 // who and when, and the user's own change kept to apply on top.
+import { When } from "~/components/ui/when";
 import type { StaleInfo } from "~/lib/bench/queue";
 
 export function StaleNotice({
@@ -26,8 +27,8 @@ export function StaleNotice({
       </h2>
       <p className="mt-1 text-steel-700">
         {s.savedBy ?? "Someone"} saved edit <span className="num">{s.currentVersion}</span> at{" "}
-        <time dateTime={s.savedAt}>{new Date(s.savedAt).toLocaleString()}</time> (you were on edit{" "}
-        <span className="num">{s.baseVersion}</span>). The bench now shows their version.
+        <When at={s.savedAt} time /> (you were on edit <span className="num">{s.baseVersion}</span>
+        ). The bench now shows their version.
       </p>
       {s.changes.length > 0 ? (
         <table className="mt-2 w-full text-left text-sm">
@@ -56,7 +57,7 @@ export function StaleNotice({
           <button
             type="button"
             onClick={onApply}
-            className="rounded bg-teal px-3 py-1 font-semibold text-white hover:bg-teal-dark"
+            className="rounded bg-teal-dark px-3 py-1 font-semibold text-white hover:bg-ink"
           >
             Apply my change on top
           </button>

@@ -12,7 +12,8 @@ export const CSV_COLUMNS = [
   {
     name: "category",
     required: true,
-    description: "A category slug, e.g. cylinders, head_gaskets, axle_adjusters",
+    description:
+      "Which kind of part it is, written as in the list of kinds below (cylinders for a cylinder)",
   },
   { name: "maker", required: true, description: "The maker's name" },
   { name: "name", required: true, description: "What the part is" },
@@ -26,14 +27,21 @@ export const CSV_COLUMNS = [
   {
     name: "tags",
     required: false,
-    description: "Tags separated by |, e.g. stock-axle-adjusters|locking",
+    description:
+      "Words the fit rules look for, separated by a bar (|), e.g. stock-axle-adjusters|locking",
   },
   { name: "stock", required: false, description: "yes or no (also true/false, 1/0)" },
   {
     name: "attributes",
     required: false,
     description:
-      "The category's measurements as key=value pairs separated by ;, e.g. boreMm=104.8 or bore_mm=104.8;compressed_thickness_mm=1.02",
+      "The part's measurements in millimetres, cc or degrees: each as name=number, separated by semicolons. The names for each kind are in the list below.",
   },
   { name: "notes", required: false, description: "Free text" },
 ] as const;
+
+/** One example row, as a file to download and fill in. */
+export const EXAMPLE_CSV = [
+  "part_number,category,maker,name,price,labour_hours,tags,stock,attributes,notes",
+  'EX-CYL-1048,cylinders,Example Foundry,Big-bore cylinder kit 104.8 mm,1290.00,6.5,big-bore,no,bore_mm=104.8,"Delete this row, then add your own"',
+].join("\r\n");

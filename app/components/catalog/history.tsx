@@ -1,5 +1,7 @@
 import { changesBetween, HistoryList } from "~/components/ui/history";
 import { attributeFieldsFor, unitText } from "~/lib/catalog/attributes";
+import { formatMoney } from "~/lib/format";
+import { categoryLabel, humanize } from "~/lib/format/labels";
 
 export type PartVersionView = {
   version: number;
@@ -9,14 +11,12 @@ export type PartVersionView = {
   snapshot: Record<string, unknown>;
 };
 
-const money = new Intl.NumberFormat("en-US", { style: "currency", currency: "USD" });
-
 function attributesText(snap: Record<string, unknown>): string {
   const attrs = (snap.attributes ?? {}) as Record<string, unknown>;
   const known = attributeFieldsFor(String(snap.category ?? ""));
   const parts = Object.entries(attrs).map(([k, v]) => {
     const f = known.find((x) => x.key === k);
-    return f ? `${f.label} ${v} ${unitText(f.unit)}` : `${k} ${v}`;
+    return f ? `${f.label} ${v} ${unitText(f.unit)}` : `${humanize(k)} ${v}`;
   });
   return parts.join(", ") || "—";
 }
@@ -26,12 +26,12 @@ const text = (v: unknown) => (v === null || v === undefined || v === "" ? "—" 
 type Field = { label: string; show: (s: Record<string, unknown>) => string; mono?: boolean };
 const FIELDS: Field[] = [
   { label: "Part number", show: (s) => text(s.part_number), mono: true },
-  { label: "Category", show: (s) => text(s.category) },
+  { label: "Category", show: (s) => (s.category ? categoryLabel(String(s.category)) : "—") },
   { label: "Maker", show: (s) => text(s.maker) },
   { label: "Name", show: (s) => text(s.name) },
   {
     label: "Price",
-    show: (s) => (typeof s.price_cents === "number" ? money.format(s.price_cents / 100) : "—"),
+    show: (s) => (typeof s.price_cents === "number" ? formatMoney(s.price_cents) : "—"),
   },
   { label: "Labour", show: (s) => `${text(s.labour_hours)} h` },
   {

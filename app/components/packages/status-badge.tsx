@@ -1,4 +1,5 @@
 import type { PackageStatus } from "../../../db/schema/packages";
+import { statusLabel } from "~/lib/format/labels";
 
 const STYLE: Record<PackageStatus, string> = {
   draft: "bg-steel-100 text-graphite",
@@ -16,7 +17,7 @@ export function StatusBadge({ status }: { status: PackageStatus }) {
       className={`rounded px-1.5 py-0.5 text-xs font-semibold ${STYLE[status]}`}
       data-testid="status"
     >
-      {status.replace("_", " ")}
+      {statusLabel(status)}
     </span>
   );
 }

@@ -1,17 +1,8 @@
 // A record's versions, newest first: who changed it and when, and what changed
 // from the version before.
+import { When } from "./when";
 
 export type HistoryChange = { label: string; before: string; after: string; mono?: boolean };
-
-const DATE_TIME = new Intl.DateTimeFormat("en-US", {
-  dateStyle: "medium",
-  timeStyle: "short",
-  timeZone: "UTC",
-});
-
-export function formatUtc(iso: string): string {
-  return `${DATE_TIME.format(new Date(iso))} UTC`;
-}
 
 type EntryProps = {
   version: number;
@@ -66,7 +57,7 @@ function HistoryEntry({
         <span className="num font-semibold text-ink">v{version}</span>
         {badge}
         <span className="text-steel-700">
-          <span className="num">{formatUtc(changedAt)}</span>
+          <When at={changedAt} time />
           {changedBy ? ` · ${changedBy}` : ""}
         </span>
       </p>
