@@ -23,6 +23,18 @@ const EnvSchema = z.object({
   MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().positive().default(15),
   // "0" keeps this process from working the job queue (it still enqueues).
   JOBS_WORKER: z.enum(["0", "1"]).default("1"),
+  // Object storage for uploads (dyno runs, build photos). Locally the S3 fake that
+  // scripts/local-services.ts starts; in production the hosted service.
+  S3_ENDPOINT: z
+    .string()
+    .url()
+    .default(`http://127.0.0.1:${process.env.TW_S3_PORT ?? "2528"}`),
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  S3_BUCKET: z.string().min(3).default("torquewright"),
+  S3_ACCESS_KEY_ID: z.string().min(1).default("S3RVER"),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).default("S3RVER"),
+  // "1" for stores that want bucket-in-path addresses (the local fake does)
+  S3_FORCE_PATH_STYLE: z.enum(["0", "1"]).default("1"),
 });
 
 export type Env = z.infer<typeof EnvSchema>;
