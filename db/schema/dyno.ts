@@ -16,7 +16,7 @@ export interface StoredFileTable {
   sha256: string;
   original_name: string;
   uploaded_by: number | null;
-  created_at: Generated<Timestamp>;
+  created_at: Timestamp;
 }
 
 export interface DynoRunTable {
@@ -40,7 +40,7 @@ export interface DynoRunTable {
   /** marked by the builder: its corrected peaks count for the package's measured figure */
   counts: Generated<boolean>;
   created_by: number | null;
-  created_at: Generated<Timestamp>;
+  created_at: Timestamp;
 }
 
 /** One point of a run in SI units, observed and corrected. */
@@ -66,7 +66,7 @@ export interface PackagePhotoTable {
   caption: Generated<string>;
   on_sheet: Generated<boolean>;
   created_by: number | null;
-  created_at: Generated<Timestamp>;
+  created_at: Timestamp;
 }
 
 export interface DynoTables {

@@ -34,6 +34,7 @@ import {
   type StaleSave,
 } from "../packages/store.server";
 import { SLOT_BY_KEY } from "../packages/slots";
+import { readMeasured } from "../dyno/measured.server";
 import type { PackageStatus } from "../../../db/schema/packages";
 
 /**
@@ -129,11 +130,14 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
   if (row.current_revision !== expectedRevision)
     return staleAnswer(db, packageId, expectedRevision);
 
-  const rules = await activeRules(db, row.rules_fingerprint);
+  const [rules, measured] = await Promise.all([
+    activeRules(db, row.rules_fingerprint),
+    readMeasured(db, packageId),
+  ]);
   const known = partMap(row.parts, true);
   const before = normaliseSpec(row.spec);
   const next = applyIntent(before, action);
-  const ev = await evaluateSpec(db, next, true, rules, known);
+  const ev = await evaluateSpec(db, next, true, rules, known, measured);
   if (action.intent === "set-part") {
     const part = ev.parts.get(action.partId);
     const slot = SLOT_BY_KEY[action.slot]!;
