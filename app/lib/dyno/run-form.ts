@@ -4,6 +4,7 @@ import { z } from "zod";
 import { MAX_RUN_BYTES } from "./run";
 import { fToC, inHgToKPa } from "./weather";
 
+// eslint-disable-next-line no-control-regex -- control characters are what is refused
 const CONTROL = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
 const text = (max: number, label: string) =>
   z

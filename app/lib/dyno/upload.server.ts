@@ -38,6 +38,15 @@ export async function uploadRun(
   packageId: number,
   request: Request,
 ): Promise<Response> {
+  const pkg = await db
+    .selectFrom("packages")
+    .select("id")
+    .where("id", "=", packageId)
+    .executeTakeFirst();
+  if (!pkg) {
+    await request.body?.cancel().catch(() => {});
+    return answer({ ok: false, message: "This package does not exist." }, 404);
+  }
   const parsed = await parseUpload(request, "file", MAX_RUN_BYTES, "run file");
   if (!parsed.ok) return answer({ ok: false, message: parsed.message }, parsed.status);
   const submission = parseWithZod(parsed.form, { schema: RunFormSchema });
@@ -102,13 +111,6 @@ export async function uploadRun(
     );
   }
   const factor = correction.ok ? correction.factor : null;
-
-  const pkg = await db
-    .selectFrom("packages")
-    .select("id")
-    .where("id", "=", packageId)
-    .executeTakeFirst();
-  if (!pkg) return answer({ ok: false, message: "This package does not exist." }, 404);
 
   const key = newObjectKey(packageId, "dyno", "csv");
   let stored: Awaited<ReturnType<typeof putObjectStream>> | null = null;
@@ -219,6 +221,7 @@ async function readCsv(file: Blob, run: RunParser): Promise<void> {
 }
 
 function safeName(name: string): string {
+  // eslint-disable-next-line no-control-regex -- control characters are what is refused
   return name.replace(/[\u0000-\u001f\u007f]/g, "").slice(0, 200) || "run.csv";
 }
 

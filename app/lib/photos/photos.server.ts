@@ -18,6 +18,7 @@ const THUMB_PX = 360;
 /** A camera photo has some tens of megapixels; more is a decompression bomb, not a photo. */
 const MAX_INPUT_PIXELS = 80_000_000;
 
+// eslint-disable-next-line no-control-regex -- control characters are what is refused
 const CONTROL = /[\u0000-\u001f\u007f]/;
 export const PhotoFormSchema = z.object({
   caption: z
@@ -49,6 +50,15 @@ export async function uploadPhoto(
   packageId: number,
   request: Request,
 ): Promise<Response> {
+  const pkg = await db
+    .selectFrom("packages")
+    .select("id")
+    .where("id", "=", packageId)
+    .executeTakeFirst();
+  if (!pkg) {
+    await request.body?.cancel().catch(() => {});
+    return answer({ ok: false, message: "This package does not exist." }, 404);
+  }
   const parsed = await parseUpload(request, "file", MAX_PHOTO_BYTES, "photo");
   if (!parsed.ok) return answer({ ok: false, message: parsed.message }, parsed.status);
   const submission = parseWithZod(parsed.form, { schema: PhotoFormSchema });
@@ -99,13 +109,6 @@ export async function uploadPhoto(
     );
   }
 
-  const exists = await db
-    .selectFrom("packages")
-    .select("id")
-    .where("id", "=", packageId)
-    .executeTakeFirst();
-  if (!exists) return answer({ ok: false, message: "This package does not exist." }, 404);
-
   const fullKey = newObjectKey(packageId, "photos", "jpg");
   const thumbKey = newObjectKey(packageId, "photos", "thumb.webp");
   try {
@@ -113,6 +116,7 @@ export async function uploadPhoto(
       putObjectBytes(fullKey, full.data, "image/jpeg"),
       putObjectBytes(thumbKey, thumb, "image/webp"),
     ]);
+    // eslint-disable-next-line no-control-regex -- control characters are what is refused
     const base = file.name.replace(/[\u0000-\u001f\u007f]/g, "").replace(/\.[^.]*$/, "") || "photo";
     const photoId = await db.transaction().execute(async (trx) => {
       const [ff, tf] = await Promise.all(
