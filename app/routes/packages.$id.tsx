@@ -18,6 +18,8 @@ import {
 import { PACKAGE_STATUSES } from "../../db/schema/packages";
 import { StatusBadge } from "~/components/packages/status-badge";
 import { RevisionCompare } from "~/components/packages/revision-compare";
+import { listPhotos } from "~/lib/photos/photos.server";
+import { PhotoSection } from "~/components/photos/photo-section";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "packages:read");
@@ -28,10 +30,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const url = new URL(request.url);
   const a = Number(url.searchParams.get("a"));
   const b = Number(url.searchParams.get("b"));
-  const [revisions, statuses, compare] = await Promise.all([
+  const [revisions, statuses, compare, photos] = await Promise.all([
     listRevisions(db, id),
     listStatusChanges(db, id),
     a > 0 && b > 0 ? compareRevisions(db, id, a, b) : Promise.resolve(null),
+    listPhotos(db, id),
   ]);
   return {
     header,
@@ -42,6 +45,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     transitions: header.isTemplate ? [] : STATUS_TRANSITIONS[header.status],
     canEdit: can(user.role, "packages:edit") && EDITABLE_STATUSES.includes(header.status),
     canStatus: can(user.role, "packages:create"),
+    photos,
+    canPhotos: can(user.role, "dyno:log"),
   };
 }
 
@@ -129,6 +134,12 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
           className="ml-auto rounded bg-teal px-3 py-1.5 font-semibold text-white hover:bg-teal-dark"
         >
           Open the spec bench
+        </Link>
+        <Link
+          to={`/packages/${header.id}/dyno`}
+          className="rounded border border-teal-dark bg-white px-3 py-1.5 font-semibold text-teal-text hover:bg-steel-50"
+        >
+          Dyno log
         </Link>
       </div>
       <p className="mt-1 text-steel-700">
@@ -273,6 +284,11 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
           </div>
         </section>
       </div>
+      <PhotoSection
+        packageId={header.id}
+        photos={loaderData.photos}
+        canEdit={loaderData.canPhotos}
+      />
     </main>
   );
 }
