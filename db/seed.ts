@@ -10,6 +10,7 @@ import { seedCore } from "./seed/core";
 import { seedAuth } from "./seed/auth";
 import { seedCatalog } from "./seed/catalog";
 import { seedPackages } from "./seed/packages";
+import { seedDyno } from "./seed/dyno";
 
 export async function seed(db: Kysely<Database>) {
   await db.transaction().execute(async (trx) => {
@@ -18,6 +19,8 @@ export async function seed(db: Kysely<Database>) {
     await seedCatalog(trx);
     await seedPackages(trx);
   });
+  // objects cannot join the transaction: stored after it, each with its rows
+  await seedDyno(db);
 }
 
 export async function isEmpty(db: Kysely<Database>) {

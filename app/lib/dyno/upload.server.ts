@@ -14,6 +14,8 @@ import {
   RunParser,
   correctionFor,
   type BadRow,
+  type Correction,
+  type RunWeather,
   type PowerUnit,
   type TorqueUnit,
 } from "./run";
@@ -110,6 +112,43 @@ export async function uploadRun(
       400,
     );
   }
+  const runId = await storeRun(db, {
+    packageId,
+    userId: user.id,
+    file,
+    details: v,
+    weather,
+    correction,
+    run,
+  });
+  return answer({ ok: true, runId, points: run.points.length, dropped: run.badCount }, 201);
+}
+
+export interface StoreRunInput {
+  packageId: number;
+  userId: number | null;
+  file: Blob & { name?: string };
+  details: {
+    label: string;
+    runDate?: string;
+    gear: string;
+    notes: string;
+    torqueUnit: TorqueUnit;
+    powerUnit: PowerUnit;
+  };
+  weather: RunWeather;
+  correction: Correction;
+  run: RunParser;
+}
+
+/**
+ * Streams an accepted run file to storage, then stores the run and its points in one
+ * transaction; if anything fails after the object went in, the object is deleted.
+ */
+export async function storeRun(db: Db, input: StoreRunInput): Promise<number> {
+  const { packageId, file, correction, run, weather } = input;
+  const v = input.details;
+  const user = { id: input.userId };
   const factor = correction.ok ? correction.factor : null;
 
   const key = newObjectKey(packageId, "dyno", "csv");
@@ -126,7 +165,7 @@ export async function uploadRun(
           content_type: "text/csv",
           byte_size: stored!.byteSize,
           sha256: stored!.sha256,
-          original_name: safeName(file.name),
+          original_name: safeName(file.name ?? "run.csv"),
           uploaded_by: user.id,
         })
         .returning("id")
@@ -172,7 +211,7 @@ export async function uploadRun(
       }
       return r.id;
     });
-    return answer({ ok: true, runId, points: run.points.length, dropped: run.badCount }, 201);
+    return runId;
   } catch (e) {
     // whatever failed after the object went in, the object goes too
     await deleteObjects([key]).catch(() => {});

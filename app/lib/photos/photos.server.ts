@@ -82,10 +82,38 @@ export async function uploadPhoto(
     );
   }
 
+  const made = await storePhoto(db, {
+    packageId,
+    userId: user.id,
+    input: Buffer.from(await file.arrayBuffer()),
+    name: file.name,
+    caption,
+  });
+  if (made === null)
+    return answer(
+      {
+        ok: false,
+        message: "The image cannot be read (damaged or too large); nothing was stored.",
+      },
+      415,
+    );
+  return answer({ ok: true, photoId: made }, 201);
+}
+
+/**
+ * Re-encodes an image (orientation applied, no metadata kept), makes its thumbnail,
+ * stores both objects and then the rows; null when the image cannot be decoded. If
+ * anything fails after the objects went in, both are deleted.
+ */
+export async function storePhoto(
+  db: Db,
+  args: { packageId: number; userId: number | null; input: Buffer; name: string; caption: string },
+): Promise<number | null> {
+  const { packageId, input, caption } = args;
+  const user = { id: args.userId };
   let full: { data: Buffer; info: OutputInfo };
   let thumb: Buffer;
   try {
-    const input = Buffer.from(await file.arrayBuffer());
     // rotate() applies the camera's orientation; sharp writes no metadata unless asked to
     const base = sharp(input, { limitInputPixels: MAX_INPUT_PIXELS, failOn: "error" }).rotate();
     full = await base
@@ -100,13 +128,7 @@ export async function uploadPhoto(
       .webp({ quality: 78 })
       .toBuffer();
   } catch {
-    return answer(
-      {
-        ok: false,
-        message: "The image cannot be read (damaged or too large); nothing was stored.",
-      },
-      415,
-    );
+    return null;
   }
 
   const fullKey = newObjectKey(packageId, "photos", "jpg");
@@ -117,7 +139,7 @@ export async function uploadPhoto(
       putObjectBytes(thumbKey, thumb, "image/webp"),
     ]);
     // eslint-disable-next-line no-control-regex -- control characters are what is refused
-    const base = file.name.replace(/[\u0000-\u001f\u007f]/g, "").replace(/\.[^.]*$/, "") || "photo";
+    const base = args.name.replace(/[\u0000-\u001f\u007f]/g, "").replace(/\.[^.]*$/, "") || "photo";
     const photoId = await db.transaction().execute(async (trx) => {
       const [ff, tf] = await Promise.all(
         [
@@ -155,7 +177,7 @@ export async function uploadPhoto(
         .executeTakeFirstOrThrow();
       return row.id;
     });
-    return answer({ ok: true, photoId }, 201);
+    return photoId;
   } catch (e) {
     await deleteObjects([fullKey, thumbKey]).catch(() => {});
     throw e;

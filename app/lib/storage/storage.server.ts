@@ -10,13 +10,13 @@ import {
   PutObjectCommand,
   S3Client,
 } from "@aws-sdk/client-s3";
-import { env } from "../env.server";
+import { s3Env } from "../env.server";
 
 let client: S3Client | undefined;
 
 export function s3(): S3Client {
   if (!client) {
-    const e = env();
+    const e = s3Env();
     client = new S3Client({
       endpoint: e.S3_ENDPOINT,
       region: e.S3_REGION,
@@ -31,7 +31,7 @@ export function s3(): S3Client {
   return client;
 }
 
-export const bucket = () => env().S3_BUCKET;
+export const bucket = () => s3Env().S3_BUCKET;
 
 /** A fresh object key under a package's prefix (keys never carry user text). */
 export function newObjectKey(packageId: number, kind: string, ext: string): string {
