@@ -16,7 +16,7 @@ const PHOTO_PACKAGE = "Drag nights, 131 ci with tall bars";
 
 /** An invented sweep: torque (lb·ft) a parabola in rpm with a little ripple; hp = T·rpm/5252. */
 export function demoSweep(peakLbFt: number, peakRpm: number, fall: number, toRpm: number) {
-  const lines = ["rpm,torque_lbft,power_hp"];
+  const lines = ["rpm,torque (lb-ft),power (hp)"];
   for (let rpm = 2500; rpm <= toRpm; rpm += 50) {
     const t = peakLbFt - fall * ((rpm - peakRpm) / 1000) ** 2 + 0.6 * Math.sin(rpm / 170);
     lines.push(`${rpm},${t.toFixed(2)},${((t * rpm) / 5252).toFixed(2)}`);
