@@ -6,6 +6,8 @@ import sharp from "sharp";
 import { createDb } from "../../db/connect";
 import { emptySpec } from "../../app/lib/bench/spec";
 import { e2eDatabaseUrl } from "../support/db-url";
+import { dryAirPressureKPa, sae1349Factor } from "../../calc";
+import { fToC, inHgToKPa } from "../../app/lib/dyno/weather";
 import { loginAs } from "./support/login";
 
 const SHOTS = ".data/test-results/screenshots";
@@ -44,7 +46,7 @@ function sweep(peakLbFt: number, peakRpm: number, toRpm: number): Buffer {
   const lines = ["rpm,torque,power"];
   for (let rpm = 2500; rpm <= toRpm; rpm += 2) {
     const t = peakLbFt - 4 * ((rpm - peakRpm) / 1000) ** 2;
-    lines.push(`${rpm},${t.toFixed(3)},${((t * rpm) / 5252).toFixed(3)}`);
+    lines.push(`${rpm},${t.toFixed(6)},${((t * rpm) / 5252).toFixed(3)}`);
   }
   return Buffer.from(lines.join("\n") + "\n");
 }
@@ -108,8 +110,15 @@ test("a run uploads with progress, is charted, overlaid, counted and changes a f
   await expect(chart.getByText("Power (hp)")).toBeVisible();
   await expect(chart.getByText("Engine speed (rpm)")).toBeVisible();
   const peaks = page.getByTestId("peaks");
-  // 77 °F, 29.92 inHg, 40 %: the factor is shown on the run's card
-  await expect(page.getByText(/Corrected to SAE J1349 JUN1990: factor 0\.99\d\d/)).toBeVisible();
+  // 77 °F, 29.92 inHg, 40 %: the factor calc/ gives for that air, shown on the run's card
+  const tC = fToC(77);
+  const factor = sae1349Factor({
+    airTempC: tC,
+    dryAirPressureKPa: dryAirPressureKPa(inHgToKPa(29.92), tC, 40),
+  });
+  await expect(
+    page.getByText(`Corrected to SAE J1349 JUN1990: factor ${factor.toFixed(4)}`),
+  ).toBeVisible();
   await expect(peaks.getByRole("row", { name: /Before cam \(corrected\)/ })).toContainText(
     /lb·ft at 3600 rpm/,
   );

@@ -25,6 +25,13 @@ export function RunUploadForm({
   const [form, fields] = useForm({
     id: "run-upload",
     lastResult,
+    // Conform restores these when the form is reset after an upload
+    defaultValue: {
+      torqueUnit: units === "metric" ? "nm" : "lbft",
+      powerUnit: units === "metric" ? "kw" : "hp",
+      tempUnit: units === "metric" ? "C" : "F",
+      baroUnit: units === "metric" ? "kpa" : "inhg",
+    },
     shouldValidate: "onSubmit",
     shouldRevalidate: "onBlur",
     onValidate: ({ formData }) => parseWithZod(formData, { schema: RunFormSchema }),
@@ -56,7 +63,6 @@ export function RunUploadForm({
     },
   });
   const f = fields;
-  const metric = units === "metric";
   const input = (name: keyof typeof f, type: "text" | "number" | "date" = "text") =>
     getInputProps(f[name] as never, { type: type as never });
   return (
@@ -83,11 +89,7 @@ export function RunUploadForm({
           errorId={f.torqueUnit.errorId}
           errors={f.torqueUnit.errors}
         >
-          <select
-            {...getSelectProps(f.torqueUnit)}
-            defaultValue={metric ? "nm" : "lbft"}
-            className={controlClass(f.torqueUnit.errors)}
-          >
+          <select {...getSelectProps(f.torqueUnit)} className={controlClass(f.torqueUnit.errors)}>
             <option value="lbft">lb·ft</option>
             <option value="nm">N·m</option>
           </select>
@@ -98,11 +100,7 @@ export function RunUploadForm({
           errorId={f.powerUnit.errorId}
           errors={f.powerUnit.errors}
         >
-          <select
-            {...getSelectProps(f.powerUnit)}
-            defaultValue={metric ? "kw" : "hp"}
-            className={controlClass(f.powerUnit.errors)}
-          >
+          <select {...getSelectProps(f.powerUnit)} className={controlClass(f.powerUnit.errors)}>
             <option value="hp">hp</option>
             <option value="kw">kW</option>
           </select>
@@ -130,11 +128,7 @@ export function RunUploadForm({
             </div>
             <div className="w-20">
               <Field id={f.tempUnit.id} label="Unit" errorId={f.tempUnit.errorId}>
-                <select
-                  {...getSelectProps(f.tempUnit)}
-                  defaultValue={metric ? "C" : "F"}
-                  className={controlClass(null)}
-                >
+                <select {...getSelectProps(f.tempUnit)} className={controlClass(null)}>
                   <option value="F">°F</option>
                   <option value="C">°C</option>
                 </select>
@@ -158,11 +152,7 @@ export function RunUploadForm({
             </div>
             <div className="w-24">
               <Field id={f.baroUnit.id} label="Unit" errorId={f.baroUnit.errorId}>
-                <select
-                  {...getSelectProps(f.baroUnit)}
-                  defaultValue={metric ? "kpa" : "inhg"}
-                  className={controlClass(null)}
-                >
+                <select {...getSelectProps(f.baroUnit)} className={controlClass(null)}>
                   <option value="inhg">inHg</option>
                   <option value="kpa">kPa</option>
                 </select>
