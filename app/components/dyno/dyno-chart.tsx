@@ -3,7 +3,6 @@
 // here, and this component only by the dyno route, so no other page loads it.
 import {
   CartesianGrid,
-  Legend,
   Line,
   LineChart,
   ReferenceArea,
@@ -69,7 +68,6 @@ export function DynoChart({
               formatter={(v) => (typeof v === "number" ? v.toFixed(1) : String(v))}
               labelFormatter={(rpm) => `${rpm} rpm`}
             />
-            <Legend verticalAlign="top" height={40} />
             {band ? (
               <ReferenceArea
                 yAxisId="power"
@@ -136,6 +134,24 @@ export function DynoChart({
           </LineChart>
         </ResponsiveContainer>
       </div>
+      <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-sm" aria-label="Curves drawn">
+        {series.map((s) => (
+          <li key={s.key} className="flex items-center gap-1">
+            <svg width="28" height="8" aria-hidden="true">
+              <line
+                x1="0"
+                y1="4"
+                x2="28"
+                y2="4"
+                stroke={s.color}
+                strokeWidth="3"
+                opacity={s.basis === "observed" ? 0.55 : 1}
+              />
+            </svg>
+            {s.name}
+          </li>
+        ))}
+      </ul>
       <figcaption className="mt-1 text-sm text-steel-700">
         Solid lines: power ({powerUnit}, right axis). Dashed: torque ({torqueUnit}, left axis).
         Filled dot: peak power; open dot: peak torque. Faint lines: observed, before correction.
