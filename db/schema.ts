@@ -6,14 +6,17 @@ import type { CatalogTables } from "./schema/catalog";
 import type { PackageTables } from "./schema/packages";
 import type { SettingsTables } from "./schema/settings";
 import type { RequestTables } from "./schema/requests";
+import type { DynoTables } from "./schema/dyno";
 
 export interface Database
-  extends CoreTables,
+  extends
+    CoreTables,
     AuthTables,
     CatalogTables,
     PackageTables,
     SettingsTables,
-    RequestTables {}
+    RequestTables,
+    DynoTables {}
 
 export type * from "./schema/core";
 export type * from "./schema/auth";
@@ -21,3 +24,4 @@ export type * from "./schema/catalog";
 export type * from "./schema/packages";
 export type * from "./schema/settings";
 export type * from "./schema/requests";
+export type * from "./schema/dyno";

@@ -11,6 +11,7 @@ import { seedAuth } from "./seed/auth";
 import { seedCatalog } from "./seed/catalog";
 import { seedPackages } from "./seed/packages";
 import { seedRequests } from "./seed/requests";
+import { seedDyno } from "./seed/dyno";
 
 export async function seed(db: Kysely<Database>) {
   await db.transaction().execute(async (trx) => {
@@ -20,6 +21,8 @@ export async function seed(db: Kysely<Database>) {
     await seedPackages(trx);
     await seedRequests(trx);
   });
+  // objects cannot join the transaction: stored after it, each with its rows
+  await seedDyno(db);
 }
 
 export async function isEmpty(db: Kysely<Database>) {

@@ -17,6 +17,16 @@ fi
 # Local fakes of the hosted services, on loopback (scripts/local-services.ts).
 export TW_SMTP_PORT="${TW_SMTP_PORT:-2526}"
 export TW_MAIL_API_PORT="${TW_MAIL_API_PORT:-2527}"
+export TW_S3_PORT="${TW_S3_PORT:-2528}"
+export TW_S3_DIR="${TW_S3_DIR:-$TW_DATA_DIR/s3}"
+
+# The S3 SDK is pinned to a release that still supports Node 20 (see STACK.md); its notice
+# about later releases is known.
+export AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED="${AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED:-true}"
+# Uploads go to the local object store unless S3_ENDPOINT names a real one.
+if [ -z "${S3_ENDPOINT:-}" ]; then
+  export S3_ENDPOINT="http://127.0.0.1:$TW_S3_PORT"
+fi
 
 # Mail goes to the local catcher (and /dev/outbox shows it) unless SMTP_URL names a real server.
 if [ -z "${SMTP_URL:-}" ]; then

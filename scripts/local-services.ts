@@ -3,6 +3,7 @@
 import { writeFileSync } from "node:fs";
 import path from "node:path";
 import { startMailCatcher } from "./services/mail-catcher";
+import { startS3Fake } from "./services/s3-fake";
 
 type Started = { name: string; url: string; stop: () => Promise<void> };
 type Starter = () => Promise<Started>;
@@ -14,6 +15,15 @@ const starters: Starter[] = [
       apiPort: Number(process.env.TW_MAIL_API_PORT ?? 2527),
     });
     return { name: "mail (smtp, api)", url: `${mail.smtpUrl}, ${mail.apiUrl}`, stop: mail.stop };
+  },
+  async () => {
+    const dataDir = process.env.TW_DATA_DIR ?? path.resolve(".data");
+    const s3 = await startS3Fake({
+      port: Number(process.env.TW_S3_PORT ?? 2528),
+      directory: process.env.TW_S3_DIR ?? path.join(dataDir, "s3"),
+      bucket: process.env.S3_BUCKET ?? "torquewright",
+    });
+    return { name: `object storage (bucket ${s3.bucket})`, url: s3.url, stop: s3.stop };
   },
 ];
 

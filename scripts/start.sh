@@ -8,9 +8,10 @@ ensure_node_modules
 bash scripts/pg.sh start
 export DATABASE_URL="${DATABASE_URL:-$(bash scripts/pg.sh url)}"
 npx tsx db/migrate.ts
+# the services first: the demo's dyno runs and photos go to the local object store
+start_local_services
 npx tsx db/seed.ts --if-empty
 npx tsx db/seed/auth.ts
-start_local_services
 
 echo "build: building the app…"
 npx react-router build >"$TW_DATA_DIR/log/build.log" 2>&1 || { tail -30 "$TW_DATA_DIR/log/build.log"; exit 1; }

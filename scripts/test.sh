@@ -6,7 +6,10 @@
 set -uo pipefail
 # The tests run their own local services on their own ports, beside a running demo.
 export TW_SMTP_PORT="${TW_TEST_SMTP_PORT:-2626}" TW_MAIL_API_PORT="${TW_TEST_MAIL_API_PORT:-2627}"
+export TW_S3_PORT="${TW_TEST_S3_PORT:-2628}"
 source "$(dirname "${BASH_SOURCE[0]}")/local-env.sh"
+# the test object store starts empty each run (its objects belong to the dropped test databases)
+export TW_S3_DIR="$TW_DATA_DIR/s3-test"; rm -rf "$TW_S3_DIR"
 export TW_RUN_DIR="$TW_DATA_DIR/run-test"; mkdir -p "$TW_RUN_DIR"
 cd "$ROOT"
 RESULTS="$TW_DATA_DIR/test-results"

@@ -45,3 +45,26 @@ export function env(): Env {
 }
 
 export const isDevelopment = () => env().NODE_ENV === "development";
+
+// Object storage for uploads (dyno runs, build photos): read apart from the rest, so the
+// demo seed (which has no session secret) can store its files too. Locally the S3 fake
+// that scripts/local-services.ts starts; in production the hosted service.
+const S3EnvSchema = z.object({
+  S3_ENDPOINT: z
+    .string()
+    .url()
+    .default(`http://127.0.0.1:${process.env.TW_S3_PORT ?? "2528"}`),
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  S3_BUCKET: z.string().min(3).default("torquewright"),
+  S3_ACCESS_KEY_ID: z.string().min(1).default("S3RVER"),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).default("S3RVER"),
+  // "1" for stores that want bucket-in-path addresses (the local fake does)
+  S3_FORCE_PATH_STYLE: z.enum(["0", "1"]).default("1"),
+});
+
+let cachedS3: z.infer<typeof S3EnvSchema> | undefined;
+
+export function s3Env(): z.infer<typeof S3EnvSchema> {
+  cachedS3 ??= S3EnvSchema.parse(process.env);
+  return cachedS3;
+}

@@ -24,6 +24,8 @@ import { When } from "~/components/ui/when";
 import { PackageSummary } from "~/components/packages/package-summary";
 import { getUnits } from "~/lib/units-pref.server";
 import { statusLabel } from "~/lib/format/labels";
+import { listPhotos } from "~/lib/photos/photos.server";
+import { PhotoSection } from "~/components/photos/photo-section";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "packages:read");
@@ -37,12 +39,13 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const b = parsePick(q.get("b"));
   if ((q.get("a") && !a) || (q.get("b") && !b))
     throw data("Pick a revision (r3) or an edit (e17) to compare.", { status: 400 });
-  const [revisions, statuses, compare, state, units] = await Promise.all([
+  const [revisions, statuses, compare, state, units, photos] = await Promise.all([
     listRevisions(db, id),
     listStatusChanges(db, id),
     a && b ? compareStates(db, id, a, b) : Promise.resolve(null),
     getBenchState(db, id, can(user.role, "prices:read")),
     getUnits(db, user.id),
+    listPhotos(db, id),
   ]);
   const editable = EDITABLE_STATUSES.includes(header.status);
   const nextStep = can(user.role, "packages:edit")
@@ -77,6 +80,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     state,
     units,
     nextStep,
+    photos,
+    canPhotos: can(user.role, "dyno:log"),
   };
 }
 
@@ -177,6 +182,12 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
             Keep-check
           </Link>
         ) : null}
+        <Link
+          to={`/packages/${header.id}/dyno`}
+          className="rounded border border-teal-dark bg-white px-3 py-1.5 font-semibold text-teal-text hover:bg-steel-50"
+        >
+          Dyno log
+        </Link>
       </div>
       <p className="mt-1 text-steel-700">
         {header.isTemplate
@@ -253,6 +264,11 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
           compareAsked={loaderData.compareAsked}
         />
       </div>
+      <PhotoSection
+        packageId={header.id}
+        photos={loaderData.photos}
+        canEdit={loaderData.canPhotos}
+      />
     </main>
   );
 }

@@ -486,6 +486,50 @@ export const ROWS: Row[] = [
     body: { intent: "close-revision", note: "Checked", expectedVersion: "1" },
     expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
   },
+  // the dyno log and build photos: builders and the owner log and remove, the service
+  // writer reads; apprentices see no package's dyno runs or photos
+  {
+    path: "/packages/999999/dyno",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
+  {
+    path: "/packages/999999/dyno",
+    method: "POST",
+    body: { intent: "counts", runId: "1", counts: "true" },
+    expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
+  },
+  {
+    path: "/packages/999999/dyno/upload",
+    method: "POST",
+    body: { label: "x" },
+    expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
+  },
+  {
+    path: "/packages/999999/photos",
+    method: "POST",
+    body: { caption: "x" },
+    expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
+  },
+  {
+    path: "/packages/999999/photos/1",
+    method: "POST",
+    body: { intent: "remove" },
+    expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
+  },
+  {
+    path: "/files/999999",
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: 404,
+      builder: 404,
+      service_writer: 404,
+    },
+  },
   // JSON routes answer 401 instead of sending a signed-out caller to the sign-in form
   {
     path: "/api/parts",

@@ -37,6 +37,8 @@ import {
   type StaleSave,
 } from "../packages/store.server";
 import { SLOT_BY_KEY } from "../packages/slots";
+import { readMeasured } from "../dyno/measured.server";
+import { withMeasured } from "../dyno/measured";
 import type { PackageStatus } from "../../../db/schema/packages";
 
 /**
@@ -153,9 +155,10 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
   }
   if (row.version !== expectedVersion) return staleAnswer(db, packageId, expectedVersion);
 
-  const [rules, limits] = await Promise.all([
+  const [rules, limits, measured] = await Promise.all([
     activeRules(db, row.rules_fingerprint),
     getCalcLimits(db),
+    readMeasured(db, packageId),
   ]);
   const known = partMap(row.parts, true);
   const before = normaliseSpec(row.spec);
@@ -205,7 +208,7 @@ export async function runBenchAction(db: Db, user: SessionUser, packageId: numbe
   const parts = new Map(
     partIds(spec).flatMap((id) => (known.has(id) ? [[id, known.get(id)!] as const] : [])),
   );
-  const snapshot = snapshotFor(spec, parts, computation);
+  const snapshot = withMeasured(snapshotFor(spec, parts, computation), measured);
   const findings = findingRefs(snapshot, rules);
   const change = describeIntent(action, partLabel(parts));
   const outcome = await saveEdit(

@@ -42,6 +42,7 @@ function inTransaction<T>(db: Db, fn: (trx: Db) => Promise<T>): Promise<T> {
 }
 
 export { EDITABLE_STATUSES, STATUS_TRANSITIONS } from "../bench/spec";
+import { withMeasured, type MeasuredFigure } from "../dyno/measured";
 import { STATUS_TRANSITIONS } from "../bench/spec";
 
 type PartRow = {
@@ -237,6 +238,8 @@ export async function evaluateSpec(
   prices = true,
   activeRules?: RuleForEval[],
   known?: ReadonlyMap<number, BenchPart>,
+  /** the dyno's measured figure, when the package has one (app/lib/dyno/measured.ts) */
+  measured?: MeasuredFigure | null,
 ): Promise<Evaluation> {
   const spec = normaliseSpec(raw);
   const ids = partIds(spec);
@@ -249,7 +252,7 @@ export async function evaluateSpec(
     loaded ??
     new Map(ids.flatMap((id) => (known!.has(id) ? [[id, known!.get(id)!] as const] : [])));
   const computation = computeBench(toCalcInput(spec, resolveFields(spec, parts), limits, parts));
-  const snapshot = snapshotFor(spec, parts, computation);
+  const snapshot = withMeasured(snapshotFor(spec, parts, computation), measured);
   const findings = await evaluateRules(snapshot, rules);
   return { spec, computation, snapshot, findings, parts, limits };
 }
