@@ -4,10 +4,17 @@ import type { CoreTables } from "./schema/core";
 import type { AuthTables } from "./schema/auth";
 import type { CatalogTables } from "./schema/catalog";
 import type { PackageTables } from "./schema/packages";
+import type { QuoteTables } from "./schema/quotes";
 
-export interface Database extends CoreTables, AuthTables, CatalogTables, PackageTables {}
+export interface Database
+  extends CoreTables,
+    AuthTables,
+    CatalogTables,
+    PackageTables,
+    QuoteTables {}
 
 export type * from "./schema/core";
 export type * from "./schema/auth";
 export type * from "./schema/catalog";
 export type * from "./schema/packages";
+export type * from "./schema/quotes";

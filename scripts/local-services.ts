@@ -3,6 +3,7 @@
 import { writeFileSync } from "node:fs";
 import path from "node:path";
 import { startMailCatcher } from "./services/mail-catcher";
+import { startPaymentFake } from "./services/payment-fake";
 
 type Started = { name: string; url: string; stop: () => Promise<void> };
 type Starter = () => Promise<Started>;
@@ -14,6 +15,14 @@ const starters: Starter[] = [
       apiPort: Number(process.env.TW_MAIL_API_PORT ?? 2527),
     });
     return { name: "mail (smtp, api)", url: `${mail.smtpUrl}, ${mail.apiUrl}`, stop: mail.stop };
+  },
+  async () => {
+    const pay = await startPaymentFake({
+      port: Number(process.env.TW_PAY_PORT ?? 2529),
+      webhookSecret: process.env.STRIPE_WEBHOOK_SECRET ?? "whsec_local",
+      webhookUrl: process.env.TW_PAY_WEBHOOK_URL || undefined,
+    });
+    return { name: "payments (test checkout)", url: pay.url, stop: pay.stop };
   },
 ];
 

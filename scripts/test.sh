@@ -5,6 +5,8 @@
 set -uo pipefail
 # The tests run their own local services on their own ports, beside a running demo.
 export TW_SMTP_PORT="${TW_TEST_SMTP_PORT:-2626}" TW_MAIL_API_PORT="${TW_TEST_MAIL_API_PORT:-2627}"
+export TW_PAY_PORT="${TW_TEST_PAY_PORT:-2629}"
+export TW_PAY_WEBHOOK_URL="http://127.0.0.1:${E2E_PORT:-3100}/api/webhooks/payments"
 source "$(dirname "${BASH_SOURCE[0]}")/local-env.sh"
 export TW_RUN_DIR="$TW_DATA_DIR/run-test"; mkdir -p "$TW_RUN_DIR"
 cd "$ROOT"

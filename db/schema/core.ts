@@ -12,7 +12,29 @@ export interface ShopTable {
   phone: string;
   email: string;
   labour_rate_cents: number;
+  address: Generated<string>;
+  /** basis points: 825 = 8.25 % */
+  tax_rate_bp: Generated<number>;
+  deposit_kind: Generated<DepositKind>;
+  /** basis points of the quote for "percent", cents for "fixed" */
+  deposit_value: Generated<number>;
+  /** IANA zone the shop's dates are shown in */
+  time_zone: Generated<string>;
   created_at: Generated<Timestamp>;
+  updated_at: Timestamp;
+}
+
+export const DEPOSIT_KINDS = ["percent", "fixed"] as const;
+export type DepositKind = (typeof DEPOSIT_KINDS)[number];
+
+export interface ShopSettingChangeTable {
+  id: Generated<number>;
+  shop_id: number;
+  field: string;
+  before: string;
+  after: string;
+  changed_by: number | null;
+  changed_at: Timestamp;
 }
 
 export interface UserTable {
@@ -50,6 +72,7 @@ export interface BikeTable {
 
 export interface CoreTables {
   shop: ShopTable;
+  shop_setting_changes: ShopSettingChangeTable;
   users: UserTable;
   customers: CustomerTable;
   bikes: BikeTable;
