@@ -20,22 +20,36 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("updated_by", "integer", (c) => c.references("users.id").onDelete("set null"))
     .addColumn("updated_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .execute();
-  await sql`create unique index labour_jobs_name_idx on labour_jobs (lower(name)) where active`.execute(db);
+  await sql`create unique index labour_jobs_name_idx on labour_jobs (lower(name)) where active`.execute(
+    db,
+  );
 
   // the quote's own terms beside the shop settings (tax and deposit live on the shop row)
   await db.schema
     .createTable("quote_settings")
     .addColumn("id", "integer", (c) => c.primaryKey().check(sql`id = 1`))
     .addColumn("supplies_bp", "integer", (c) =>
-      c.notNull().defaultTo(0).check(sql`supplies_bp between 0 and 10000`),
+      c
+        .notNull()
+        .defaultTo(0)
+        .check(sql`supplies_bp between 0 and 10000`),
     )
     .addColumn("valid_days", "integer", (c) =>
-      c.notNull().defaultTo(14).check(sql`valid_days between 1 and 90`),
+      c
+        .notNull()
+        .defaultTo(14)
+        .check(sql`valid_days between 1 and 90`),
     )
     .addColumn("updated_by", "integer", (c) => c.references("users.id").onDelete("set null"))
     .addColumn("updated_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .execute();
   await sql`insert into quote_settings (id) values (1)`.execute(db);
+
+  // why a status changed when it was not the usual next step (a cancel's reason)
+  await db.schema
+    .alterTable("package_status_changes")
+    .addColumn("reason", "text", (c) => c.notNull().defaultTo(""))
+    .execute();
 
   await db.schema
     .createTable("quote_drafts")
@@ -106,7 +120,9 @@ export async function up(db: Kysely<any>): Promise<void> {
       c
         .notNull()
         .defaultTo("open")
-        .check(sql`status in ('open', 'paid', 'declined', 'expired', 'refunded', 'partly_refunded')`),
+        .check(
+          sql`status in ('open', 'paid', 'declined', 'expired', 'refunded', 'partly_refunded')`,
+        ),
     )
     .addColumn("failure", "text")
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
@@ -149,5 +165,6 @@ export async function down(db: Kysely<any>): Promise<void> {
   await db.schema.dropTable("quote_versions").execute();
   await db.schema.dropTable("quote_drafts").execute();
   await db.schema.dropTable("quote_settings").execute();
+  await db.schema.alterTable("package_status_changes").dropColumn("reason").execute();
   await db.schema.dropTable("labour_jobs").execute();
 }

@@ -13,7 +13,7 @@ export interface LabourJobTable {
   description: Generated<string>;
   active: Generated<boolean>;
   updated_by: number | null;
-  updated_at: Generated<Timestamp>;
+  updated_at: Timestamp;
 }
 
 export interface QuoteSettingsTable {
@@ -21,7 +21,7 @@ export interface QuoteSettingsTable {
   supplies_bp: Generated<number>;
   valid_days: Generated<number>;
   updated_by: number | null;
-  updated_at: Generated<Timestamp>;
+  updated_at: Timestamp;
 }
 
 export interface QuoteDraftTable {
@@ -31,7 +31,7 @@ export interface QuoteDraftTable {
   deposit: JsonCol<unknown> | null;
   note: Generated<string>;
   updated_by: number | null;
-  updated_at: Generated<Timestamp>;
+  updated_at: Timestamp;
 }
 
 export const QUOTE_STATUSES = [
@@ -62,7 +62,7 @@ export interface QuoteVersionTable {
   token_hash: string;
   expires_at: Timestamp;
   sent_by: number | null;
-  sent_at: Generated<Timestamp>;
+  sent_at: Timestamp;
   approved_at: Timestamp | null;
 }
 
@@ -86,16 +86,16 @@ export interface PaymentTable {
   refunded_cents: ColumnType<string, number | string | undefined, number | string>;
   status: ColumnType<PaymentStatus, PaymentStatus | undefined, PaymentStatus>;
   failure: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: Timestamp;
   paid_at: Timestamp | null;
-  updated_at: Generated<Timestamp>;
+  updated_at: Timestamp;
 }
 
 export interface PaymentEventTable {
   event_id: string;
   type: string;
   payload: JsonCol<unknown>;
-  received_at: Generated<Timestamp>;
+  received_at: Timestamp;
   applied_at: Timestamp | null;
   outcome: string;
 }
@@ -105,7 +105,7 @@ export interface CustomerMessageTable {
   package_id: number;
   quote_version_id: number | null;
   body: string;
-  created_at: Generated<Timestamp>;
+  created_at: Timestamp;
   read_at: Timestamp | null;
   read_by: number | null;
 }
