@@ -7,11 +7,7 @@ import type { PackageTables } from "./schema/packages";
 import type { QuoteTables } from "./schema/quotes";
 
 export interface Database
-  extends CoreTables,
-    AuthTables,
-    CatalogTables,
-    PackageTables,
-    QuoteTables {}
+  extends CoreTables, AuthTables, CatalogTables, PackageTables, QuoteTables {}
 
 export type * from "./schema/core";
 export type * from "./schema/auth";

@@ -11,6 +11,7 @@ import { requireSameOrigin } from "~/lib/auth/origin.server";
 import { getDb } from "~/lib/db.server";
 import { startDepositCheckout } from "~/lib/payments/deposits.server";
 import { formatCents } from "~/lib/quotes/display";
+import { CONTROL } from "~/lib/quotes/forms";
 import {
   approveByCustomer,
   checkQuoteLink,
@@ -30,9 +31,8 @@ const MessageSchema = z.object({
     .trim()
     .min(3, "Tell the shop what you would like changed.")
     .max(2000, "Keep the message to 2,000 characters; the shop will call you for the rest.")
-    // eslint-disable-next-line no-control-regex -- refusing control characters is the point
     .refine(
-      (s) => !/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/.test(s),
+      (s) => !CONTROL.test(s.replace(/[\r\n\t]/g, "")),
       "The message contains characters that cannot be sent.",
     ),
 });

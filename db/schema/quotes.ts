@@ -2,8 +2,8 @@ import type { ColumnType, Generated, Selectable } from "kysely";
 import type { Timestamp } from "./core";
 
 type JsonCol<T> = ColumnType<T, T | string, T | string>;
-// bigint columns come back from pg as strings; the store turns them into numbers
-type Cents = ColumnType<string, number | bigint | string, number | bigint | string>;
+// bigint columns: db/connect.ts reads int8 as a JavaScript number (cents stay far below 2^53)
+type Cents = ColumnType<number, number | string, number | string>;
 
 export interface LabourJobTable {
   id: Generated<number>;
@@ -83,7 +83,7 @@ export interface PaymentTable {
   checkout_session_id: string;
   payment_intent_id: string | null;
   amount_cents: Cents;
-  refunded_cents: ColumnType<string, number | string | undefined, number | string>;
+  refunded_cents: ColumnType<number, number | string | undefined, number | string>;
   status: ColumnType<PaymentStatus, PaymentStatus | undefined, PaymentStatus>;
   failure: string | null;
   created_at: Timestamp;

@@ -3,7 +3,7 @@ import { z } from "zod";
 import { parseHundredths, parsePercentBasisPoints, type Adjustment } from "./money";
 
 // eslint-disable-next-line no-control-regex -- the point is to refuse control characters
-const CONTROL = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
+export const CONTROL = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
 
 const text = (label: string, max: number) =>
   z

@@ -2,7 +2,6 @@
 // to the customer (frozen, with the package revision they price), and the customer's
 // signed link to one version.
 import { createHmac, randomBytes, timingSafeEqual } from "node:crypto";
-import { sql } from "kysely";
 import { z } from "zod";
 import type { Db } from "../db.server";
 import { env } from "../env.server";
