@@ -10,6 +10,7 @@ import { seedCore } from "./seed/core";
 import { seedAuth } from "./seed/auth";
 import { seedCatalog } from "./seed/catalog";
 import { seedPackages } from "./seed/packages";
+import { seedQuotes } from "./seed/quotes";
 
 export async function seed(db: Kysely<Database>) {
   await db.transaction().execute(async (trx) => {
@@ -17,6 +18,7 @@ export async function seed(db: Kysely<Database>) {
     await seedAuth(trx);
     await seedCatalog(trx);
     await seedPackages(trx);
+    await seedQuotes(trx);
   });
 }
 

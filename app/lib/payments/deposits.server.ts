@@ -1,7 +1,7 @@
 // Deposits through the payment service: a checkout session for a sent quote's deposit,
 // the service's webhook events applied once each (by event id, whatever the order or
 // the number of deliveries), and refunds. No card number ever reaches this server.
-import type Stripe from "stripe";
+import Stripe from "stripe";
 import { sql } from "kysely";
 import type { Db } from "../db.server";
 import { queueMail } from "../mail/mail.server";
@@ -315,6 +315,8 @@ export async function refundDeposit(
         ok: false,
         message: SERVICE_DOWN.replace("Nothing was charged", "Nothing was refunded"),
       };
+    if (e instanceof Stripe.errors.StripeError)
+      return { ok: false, message: `The payment service refused the refund: ${e.message}` };
     throw e;
   }
   return { ok: true };

@@ -384,6 +384,8 @@ export async function sendQuote(
   packageId: number,
   userId: number,
   now = new Date(),
+  /** the demo seed freezes quotes of packages already past "quoted", without mail */
+  opts: { mail?: boolean; anyStatus?: boolean } = {},
 ): Promise<SendOutcome> {
   return inTransaction(db, async (trx) => {
     const pkg = await trx
@@ -408,7 +410,7 @@ export async function sendQuote(
         field: "form",
         message: "A shop template is not quoted; copy it into a package for a bike.",
       };
-    if (pkg.status !== "draft" && pkg.status !== "quoted")
+    if (pkg.status !== "draft" && pkg.status !== "quoted" && !opts.anyStatus)
       return {
         ok: false,
         field: "form",
@@ -484,24 +486,25 @@ export async function sendQuote(
       await moveStatus(trx, packageId, "draft", "quoted", userId, "Quote sent");
     const link = quoteUrl(token);
     const number = (last?.number ?? 0) + 1;
-    await queueMail(trx, {
-      key: `quote:${inserted.id}`,
-      to: pkg.customer_email,
-      subject: `Your engine package quote from ${settings.shopName}`,
-      text: [
-        `Hello ${pkg.customer_name ?? ""},`.trim(),
-        "",
-        `Here is quote ${number} for "${priced.summary.packageName}"${priced.summary.bike ? ` on your ${priced.summary.bike}` : ""}.`,
-        `Open it to see what we plan to do and why, approve it or ask for changes, and pay the deposit:`,
-        "",
-        link,
-        "",
-        `The link is for you alone and works until ${expiresAt.toLocaleDateString("en-US", { dateStyle: "long", timeZone: settings.timeZone })}.`,
-        `Questions? Call us at ${settings.shopPhone} or reply to this e-mail.`,
-        "",
-        settings.shopName,
-      ].join("\n"),
-    });
+    if (opts.mail !== false)
+      await queueMail(trx, {
+        key: `quote:${inserted.id}`,
+        to: pkg.customer_email,
+        subject: `Your engine package quote from ${settings.shopName}`,
+        text: [
+          `Hello ${pkg.customer_name ?? ""},`.trim(),
+          "",
+          `Here is quote ${number} for "${priced.summary.packageName}"${priced.summary.bike ? ` on your ${priced.summary.bike}` : ""}.`,
+          `Open it to see what we plan to do and why, approve it or ask for changes, and pay the deposit:`,
+          "",
+          link,
+          "",
+          `The link is for you alone and works until ${expiresAt.toLocaleDateString("en-US", { dateStyle: "long", timeZone: settings.timeZone })}.`,
+          `Questions? Call us at ${settings.shopPhone} or reply to this e-mail.`,
+          "",
+          settings.shopName,
+        ].join("\n"),
+      });
     const version = await getVersion(trx, inserted.id);
     return { ok: true, version: version!, link };
   });
