@@ -22,6 +22,9 @@ const customerRoute = await import("~/routes/q.$token");
 const webhook = await import("~/routes/api.webhooks.payments");
 const { stopJobs } = await import("~/lib/mail/jobs.server");
 const { SERVICE_DOWN } = await import("~/lib/payments/deposits.server");
+const sheetPdf = await import("~/routes/packages.$id.sheet[.]pdf");
+const quotePdf = await import("~/routes/packages.$id.quote[.]pdf");
+const { PDFParse } = await import("pdf-parse");
 const { createTestUser, requestAs, signedOutRequest, form } = await import("../support/auth");
 const { args, run } = await import("../support/route");
 
@@ -600,5 +603,54 @@ describe("out of order, outages and old links", () => {
     expect(
       await db.selectFrom("payments").select("id").where("package_id", "=", id).execute(),
     ).toEqual([]);
+  });
+});
+
+describe("the spec sheet and the quote as PDFs", () => {
+  const pdfText = async (res: Response) => {
+    expect(res.headers.get("content-type")).toBe("application/pdf");
+    const parser = new PDFParse({ data: new Uint8Array(await res.arrayBuffer()) });
+    return (await parser.getText()).text.replace(/\s+/g, " ");
+  };
+
+  it("the sheet carries the package's numbers in both unit systems, the parts and the cautions", async () => {
+    const res = (await sheetPdf.loader(
+      args(await requestAs(writer, `/packages/${packageId}/sheet.pdf`), { id: String(packageId) }),
+    )) as Response;
+    const text = await pdfText(res);
+    expect(text).toContain(`Quote main ${tag}`);
+    // bore 104.8 mm = 4.126 in (104.8 / 25.4 = 4.1260, exact inch of 1959)
+    expect(text).toContain("4.126 in");
+    expect(text).toContain("104.80 mm");
+    // stroke 114.3 mm = 4.500 in
+    expect(text).toContain("4.500 in");
+    expect(text).toContain("Quote test fly (Q-");
+    expect(text).toContain("Torque every fastener to the parts maker's instructions");
+    expect(text).not.toContain("$"); // the technician's sheet carries no prices
+  });
+
+  it("the quote PDF carries the sent quote's total, and an apprentice cannot fetch it", async () => {
+    const v = await db
+      .selectFrom("quote_versions")
+      .select(["total_cents"])
+      .where("package_id", "=", packageId)
+      .orderBy("number", "desc")
+      .executeTakeFirstOrThrow();
+    const res = (await quotePdf.loader(
+      args(await requestAs(writer, `/packages/${packageId}/quote.pdf`), { id: String(packageId) }),
+    )) as Response;
+    const text = await pdfText(res);
+    const total = new Intl.NumberFormat("en-US", { style: "currency", currency: "USD" }).format(
+      v.total_cents / 100,
+    );
+    expect(text).toContain(`Total ${total}`);
+    const refused = await run(async () =>
+      quotePdf.loader(
+        args(await requestAs(apprentice, `/packages/${packageId}/quote.pdf`), {
+          id: String(packageId),
+        }),
+      ),
+    );
+    expect(refused.status).toBe(403);
   });
 });
