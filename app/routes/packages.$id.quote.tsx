@@ -488,7 +488,14 @@ export default function PackageQuote({ loaderData }: Route.ComponentProps) {
                 </span>
                 <span className="tabular-nums">
                   {formatCents(v.totals.totalCents)} · deposit {formatCents(v.totals.depositCents)}{" "}
-                  · {VERSION_STATUS[v.status] ?? v.status}
+                  · {VERSION_STATUS[v.status] ?? v.status} ·{" "}
+                  <a
+                    href={`/packages/${header.id}/quote.pdf?version=${v.number}`}
+                    className="text-teal-text underline"
+                    download
+                  >
+                    PDF
+                  </a>
                 </span>
               </li>
             ))}
