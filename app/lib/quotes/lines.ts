@@ -14,6 +14,8 @@ export type QuotePart = {
   priceCents: number;
   /** hundredths of an hour */
   labourHundredths: number;
+  /** what the bike came with: in its slot with nothing else known, it is not a change */
+  stock: boolean;
 };
 
 export type QuoteJob = { id: number; name: string; hoursHundredths: number; slots: string[] };
@@ -93,7 +95,11 @@ export function chooseJobs(changed: string[], jobs: QuoteJob[]): QuoteJob[] {
 
 export function buildQuoteLines(src: QuoteSource): BuiltQuote {
   const changedSlots = Object.entries(src.slots)
-    .filter(([slot, part]) => part && src.baseline[slot] !== part.id)
+    .filter(([slot, part]) => {
+      if (!part) return false;
+      if (Object.hasOwn(src.baseline, slot)) return src.baseline[slot] !== part.id;
+      return !part.stock;
+    })
     .map(([slot]) => slot);
   const lines: BuiltLine[] = [];
   for (const slot of changedSlots) {

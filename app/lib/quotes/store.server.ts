@@ -56,8 +56,10 @@ export type QuoteSummary = {
   changes: string[];
 };
 
+export type PricedQuoteLine = BuiltLine & { amountCents: number };
+
 export type PricedQuote = {
-  lines: BuiltLine[];
+  lines: PricedQuoteLine[];
   totals: QuoteTotals;
   terms: QuoteTerms;
   changedSlots: string[];
@@ -71,7 +73,7 @@ export type QuoteVersionView = {
   packageId: number;
   number: number;
   packageRevision: number;
-  lines: BuiltLine[];
+  lines: PricedQuoteLine[];
   totals: Omit<QuoteTotals, "lines">;
   terms: QuoteTerms;
   summary: QuoteSummary;
@@ -177,7 +179,7 @@ async function partsForQuote(db: Db, ids: number[]): Promise<Map<number, QuotePa
   if (ids.length === 0) return new Map();
   const rows = await db
     .selectFrom("parts")
-    .select(["id", "part_number", "name", "maker", "price_cents", "labour_hours"])
+    .select(["id", "part_number", "name", "maker", "price_cents", "labour_hours", "stock"])
     .where("id", "in", ids)
     .execute();
   return new Map(
@@ -190,6 +192,7 @@ async function partsForQuote(db: Db, ids: number[]): Promise<Map<number, QuotePa
         maker: r.maker,
         priceCents: r.price_cents,
         labourHundredths: Math.round(Number(r.labour_hours) * 100),
+        stock: r.stock,
       },
     ]),
   );
@@ -247,7 +250,7 @@ export async function priceCurrent(db: Db, packageId: number): Promise<PricedQuo
   const totals = priceQuote(built.lines, terms);
   const r = bench.computation.results;
   return {
-    lines: built.lines,
+    lines: built.lines.map((l, i) => ({ ...l, amountCents: totals.lines[i]!.amountCents })),
     totals,
     terms,
     changedSlots: built.changedSlots,
