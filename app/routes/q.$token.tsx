@@ -243,7 +243,7 @@ export default function CustomerQuote({ loaderData }: Route.ComponentProps) {
                 : `${fmt1(s.displacementCi)} ci (${fmt1(s.displacementCc, 0)} cc)`
             }
           />
-          <Figure label="Compression" value={s.staticCr === null ? "—" : `${fmt1(s.staticCr)}:1`} />
+          <Figure label="Static compression" value={s.staticCr === null ? "—" : `${fmt1(s.staticCr)}:1`} />
           <Figure
             label="Dynamic compression"
             value={s.dynamicCr === null ? "—" : `${fmt1(s.dynamicCr, 2)}:1`}

@@ -74,7 +74,7 @@ export function QuoteTable({
                   ) : null}
                   {removable && onRemove ? onRemove(index) : null}
                 </td>
-                <td className="tabular-nums sm:px-3 sm:py-2 sm:text-right">
+                <td className="whitespace-nowrap tabular-nums sm:px-3 sm:py-2 sm:text-right">
                   <span className="sm:hidden">Qty </span>
                   {formatHundredths(l.quantityHundredths)}
                   {l.kind === "labour" ? " h" : ""}
