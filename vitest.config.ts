@@ -2,18 +2,14 @@ import { defineConfig } from "vitest/config";
 import { fileURLToPath } from "node:url";
 import { testDatabaseUrl } from "./tests/support/db-url.ts";
 
+// Two projects: pure unit tests (calc/, app/**) need no database and run without resetting
+// it; the database-backed tests (tests/integration, db/) get a fresh, migrated test
+// database once per run (global setup). A focused run of unit tests only resets nothing.
 export default defineConfig({
   resolve: {
     alias: { "~": fileURLToPath(new URL("./app", import.meta.url)) },
   },
   test: {
-    include: [
-      "calc/**/*.test.ts",
-      "app/**/*.test.ts",
-      "db/**/*.test.ts",
-      "tests/integration/**/*.test.ts",
-    ],
-    globalSetup: ["tests/support/global-setup.ts"],
     setupFiles: ["tests/support/fail-on-console.ts"],
     env: {
       DATABASE_URL: testDatabaseUrl(),
@@ -23,5 +19,23 @@ export default defineConfig({
     testTimeout: 20_000,
     hookTimeout: 60_000,
     pool: "forks",
+    projects: [
+      {
+        extends: true,
+        test: { name: "unit", include: ["calc/**/*.test.ts", "app/**/*.test.ts"] },
+      },
+      {
+        extends: true,
+        test: {
+          name: "db",
+          include: [
+            "db/**/*.test.ts",
+            "tests/integration/**/*.test.ts",
+            "tests/faults/**/*.test.ts",
+          ],
+          globalSetup: ["tests/support/global-setup.ts"],
+        },
+      },
+    ],
   },
 });

@@ -23,33 +23,39 @@ import {
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
-describe("displacement (Heywood, Internal Combustion Engine Fundamentals, 1988, §2.2: V_d = (π/4)·B²·L)", () => {
+// Heywood, Internal Combustion Engine Fundamentals, McGraw-Hill, 1st edition 1988, §2.2
+// "Geometrical properties of reciprocating engines"; equation numbers below are from memory.
+describe("displacement (Heywood 1988, §2.2, eq. 2.3 from memory: V_d = (π/4)·B²·L)", () => {
   it("3.5 in × 3.0 in × 6 cylinders is 173.18 in³", () => {
-    // derived from the formula; an engine sold as "173 cubic inch"
+    // derived from the formula (inputs and the name "173 cubic inch" are common practice)
     const ci = ccToCi(displacementCc(inToMm(3.5), inToMm(3.0), 6));
     expect(ci).toBeCloseTo(173.18, 2);
     expect(Math.round(ci)).toBe(173);
   });
 
   it("81.0 × 62.6 mm, 2 cylinders is 645 cc", () => {
-    // published inputs and figure: motorcycle.com, a 645 cc V-twin road bike
+    // published inputs and figure: motorcycle.com, the specification of a 645 cc V-twin road
+    // bike (page title and date not recorded: from memory)
     expect(Math.round(displacementCc(81.0, 62.6, 2))).toBe(645);
   });
 
   it("100 × 83 mm, 1 cylinder is 651 cc", () => {
-    // published: howmotorcycleswork.com gives 651 cc; the formula gives 651.9 (published figure truncated)
+    // published: howmotorcycleswork.com gives 651 cc (page title and date not recorded: from
+    // memory); the formula gives 651.9. The figure is truncated, not rounded, so the check
+    // is widened on purpose from "rounds to 651" to "651 ≤ cc < 652"
     const cc = displacementCc(100, 83, 1);
     expect(cc).toBeGreaterThanOrEqual(651);
     expect(cc).toBeLessThan(652);
   });
 
   it("65.5 × 44.5 mm, 4 cylinders is 600 cc", () => {
-    // published: howmotorcycleswork.com
+    // published: howmotorcycleswork.com (page title and date not recorded: from memory)
     expect(Math.round(displacementCc(65.5, 44.5, 4))).toBe(600);
   });
 
   it("101 × 113 mm, 2 cylinders is 1811 cc (111 ci)", () => {
-    // published: Cycle World, 2013, a 111 ci V-twin
+    // published: Cycle World, 2013, road test of a 111 ci V-twin (issue and page not recorded:
+    // from memory)
     const cc = displacementCc(101, 113, 2);
     expect(Math.round(cc)).toBe(1811);
     expect(Math.round(ccToCi(cc))).toBe(110); // derived: 1810.7 cc is 110.5 ci, sold as "111"
@@ -63,7 +69,7 @@ describe("displacement (Heywood, Internal Combustion Engine Fundamentals, 1988, 
   });
 
   it("a 4.5 in stroke with a bore near 4.31 in makes a V-twin of about 131 ci", () => {
-    // common practice
+    // derived: 2 × (π/4) × 4.31² × 4.5 in³ = 131.3 in³ (the pairing is common practice)
     expect(Math.round(ccToCi(displacementCc(inToMm(4.31), inToMm(4.5), 2)))).toBe(131);
   });
 
@@ -84,7 +90,7 @@ const base: StaticInputs = {
   pistonDomeCc: 0,
 };
 
-describe("compression ratio (Heywood 1988 §2.2: r_c = (V_d + V_c)/V_c)", () => {
+describe("compression ratio (Heywood 1988, §2.2, eq. 2.4 from memory: r_c = (V_d + V_c)/V_c)", () => {
   it("a worked example", () => {
     // derived: V_d = 785.398 cc; V_c = 70 + (π/4)·100²·1/1000 = 77.854 cc; r_c = 863.252/77.854 = 11.0881
     expect(clearanceVolumeCc(base)).toBeCloseTo(77.853982, 5);
@@ -130,7 +136,7 @@ describe("compression ratio (Heywood 1988 §2.2: r_c = (V_d + V_c)/V_c)", () => 
   });
 });
 
-describe("slider-crank piston motion (Heywood 1988 §2.2)", () => {
+describe("slider-crank piston motion (Heywood 1988, §2.2, eqs. 2.5–2.6 from memory)", () => {
   const L = 100;
   const l = 150;
   const a = L / 2;
@@ -149,14 +155,15 @@ describe("slider-crank piston motion (Heywood 1988 §2.2)", () => {
   });
 
   it("moves at a·ω exactly at 90°", () => {
-    // published: Heywood §2.2 / course notes (NC State MAE 408): S_p = a·ω at θ = 90°
+    // derived from Heywood 1988, §2.2, eq. 2.10 (number from memory): at θ = 90° the bracket
+    // is 1, so S_p = (π/2)·S̄_p = (π/2)·2LN = a·ω
     const rpm = 6000;
     const omega = (rpm * 2 * Math.PI) / 60;
     expect(rel(pistonSpeedMs(L, l, rpm, 90), (a * omega) / 1000)).toBeLessThan(1e-14);
   });
 
   it("speed matches Heywood's ratio S_p/S̄_p = (π/2)·sin θ·[1 + cos θ/√(R² − sin² θ)]", () => {
-    // published: Heywood §2.2, R = l/a
+    // published: Heywood 1988, §2.2, eq. 2.10 (number from memory), with R = l/a
     const R = l / a;
     const rpm = 4000;
     for (const deg of [10, 30, 60, 75, 120, 150]) {
@@ -184,12 +191,14 @@ describe("slider-crank piston motion (Heywood 1988 §2.2)", () => {
   });
 
   it("mean piston speed 2·L·N: 90 mm at 3000 rpm is 9 m/s", () => {
-    // published: Wikipedia, "Mean piston speed", worked example
+    // published: Heywood 1988, §2.2, eq. 2.9 (number from memory): S̄_p = 2LN; the same worked
+    // example (90 mm, 3000 rpm, 9 m/s) is in Wikipedia, "Mean piston speed" (revision date
+    // not recorded)
     expect(meanPistonSpeedMs(90, 3000)).toBeCloseTo(9, 12);
   });
 
   it("a 4.5 in stroke at 6000 rpm is 4500 ft/min", () => {
-    // common practice
+    // derived: 2 × 4.5 in × 6000 /min ÷ 12 in/ft = 4500 ft/min
     expect(msToFtMin(meanPistonSpeedMs(inToMm(4.5), 6000))).toBeCloseTo(4500, 9);
   });
 });

@@ -12,6 +12,7 @@ export {
   W_PER_HP,
   KW_PER_HP,
   KPA_PER_INHG,
+  KPA_PER_INHG_CONVENTIONAL,
   inToMm,
   mmToIn,
   ccToCi,

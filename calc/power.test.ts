@@ -36,7 +36,8 @@ describe("power from torque", () => {
   });
 
   it("the two forms agree through the unit definitions", () => {
-    // derived: NIST SP 811 (2008) App. B.8 factors for lbf·ft and hp
+    // derived: NIST SP 811, 2008 edition, Appendix B.8, "foot pound-force" and "horsepower
+    // (550 ft · lbf/s)"
     const hp = powerHp(95, 4800);
     expect(powerKw(lbFtToNm(95), 4800)).toBeCloseTo(hpToKw(hp), 10);
   });
@@ -48,13 +49,15 @@ describe("SAE J1349 correction (JUN1990 form)", () => {
   });
 
   it("is 1 at the reference conditions, 25 °C and 99 kPa dry air", () => {
-    // published: SAE J1349 JUN1990 reference conditions
+    // published: SAE J1349 JUN1990, Engine Power Test Code, reference conditions 25 °C and
+    // 99 kPa dry air (section number not checked: from memory)
     expect(sae1349Factor(SAE_J1349_REFERENCE)).toBe(1);
     expect(sae1349Factor({ airTempC: 25, dryAirPressureKPa: 99 })).toBe(1);
   });
 
   it("a hot, low-pressure day corrects upwards", () => {
-    // derived: 1.18·(99/95)·√(308/298) − 0.18 = 1.070146
+    // derived: the SAE J1349 JUN1990 correction CF = 1.18·(99/P_d)·√((T + 273)/298) − 0.18
+    // (equation number not checked: from memory): 1.18·(99/95)·√(308/298) − 0.18 = 1.070146
     expect(sae1349Factor({ airTempC: 35, dryAirPressureKPa: 95 })).toBeCloseTo(1.070146, 6);
     expect(sae1349Factor({ airTempC: 10, dryAirPressureKPa: 101 })).toBeLessThan(1);
   });
@@ -70,14 +73,17 @@ describe("SAE J1349 correction (JUN1990 form)", () => {
 
 describe("water vapour and dry air", () => {
   it("saturation pressure at 0 °C is the Magnus constant", () => {
-    // published: Alduchov & Eskridge (1996), 0.61094 kPa coefficient
+    // published: Alduchov & Eskridge, "Improved Magnus Form Approximation of Saturation Vapor
+    // Pressure", Journal of Applied Meteorology 35(4), 1996, eq. 21 (number from memory):
+    // e_s = 6.1094·exp(17.625·T/(T + 243.04)) hPa, 6.1094 hPa = 0.61094 kPa at 0 °C
     expect(vaporPressureKPa(0)).toBe(0.61094);
   });
 
   it("saturation pressure at 20 °C is near the steam-table value", () => {
-    // from memory: steam tables give about 2.339 kPa at 20 °C; the Magnus form gives 2.3334
+    // from memory: steam tables give about 2.339 kPa at 20 °C; the Magnus form gives 2.3334.
+    // A tolerance of 0.5 % is allowed on purpose: the two are different approximations
     expect(Math.abs(vaporPressureKPa(20) - 2.339) / 2.339).toBeLessThan(0.005);
-    // derived: 0.61094·exp(17.625·20/263.04)
+    // derived: 0.61094·exp(17.625·20/263.04) (the Alduchov & Eskridge form above)
     expect(vaporPressureKPa(20)).toBeCloseTo(2.333441, 6);
   });
 

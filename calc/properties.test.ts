@@ -41,8 +41,19 @@ const staticSpec: fc.Arbitrary<StaticInputs> = fc
   })
   .map(({ gasketOverMm, ...s }) => ({ ...s, gasketBoreMm: s.boreMm + gasketOverMm }));
 
+// intake closing: spread evenly over 0–179.9° (fc.double leans to the ends of its range),
+// plus closings within a thousandth of a degree of BDC and BDC itself
 const dynamicSpec = fc
-  .tuple(staticSpec, num(1.0001, 6), fc.oneof(num(0, 179.9), num(0, 1e-3), fc.constant(0)))
+  .tuple(
+    staticSpec,
+    num(1.0001, 6),
+    fc.oneof(
+      { arbitrary: fc.integer({ min: 0, max: 17990 }).map((i) => i / 100), weight: 3 },
+      num(0, 179.9),
+      num(0, 1e-3),
+      fc.constant(0),
+    ),
+  )
   .map(([s, k, ivc]) => ({ ...s, rodLengthMm: (s.strokeMm / 2) * k, intakeClosesAbdcDeg: ivc }));
 
 describe("properties", () => {
@@ -64,6 +75,7 @@ describe("properties", () => {
   });
 
   it("the static ratio rises as the chamber shrinks, the dome grows or the gasket thins", () => {
+    let thinnerChecked = 0;
     fc.assert(
       fc.property(staticSpec, num(0.01, 0.99), (s, f) => {
         const r = staticCompressionRatio(s);
@@ -76,18 +88,25 @@ describe("properties", () => {
         ).toBeGreaterThan(r);
         const thinner = s.gasketThicknessMm * (1 - f);
         fc.pre(s.deckClearanceMm + thinner > 0);
+        thinnerChecked += 1;
         expect(staticCompressionRatio({ ...s, gasketThicknessMm: thinner })).toBeGreaterThan(r);
       }),
+      { numRuns: 500 },
     );
+    // the thinner-gasket check runs for most cases, not only a few past the precondition
+    expect(thinnerChecked).toBeGreaterThan(400);
   });
 
   it("each solver inverts the static ratio", () => {
     let solvedGasket = 0;
     let solvedChamber = 0;
+    let unsolvedGasket = 0;
+    let unsolvedChamber = 0;
     fc.assert(
-      fc.property(staticSpec, num(6, 16), (s, target) => {
+      // usual targets, and high ones that a chamber cannot reach, so both answers are tried
+      fc.property(staticSpec, fc.oneof(num(6, 16), num(16, 60)), (s, target) => {
         const dome = solveDomeCcForRatio(target, s);
-        expect(dome.ok).toBe(true);
+        if (target <= 16) expect(dome.ok).toBe(true);
         if (dome.ok) {
           expect(
             rel(staticCompressionRatio({ ...s, pistonDomeCc: dome.value }), target),
@@ -104,6 +123,7 @@ describe("properties", () => {
           const vc =
             s.chamberCc + (Math.PI / 4) * s.boreMm ** 2 * s.deckClearanceMm * 1e-3 - s.pistonDomeCc;
           const need = ((Math.PI / 4) * s.boreMm ** 2 * s.strokeMm * 1e-3) / (target - 1);
+          unsolvedGasket++;
           const t = (need - vc) / ((Math.PI / 4) * s.gasketBoreMm ** 2 * 1e-3);
           expect(t <= 0 || s.deckClearanceMm + t <= 0).toBe(true);
         }
@@ -115,16 +135,23 @@ describe("properties", () => {
             rel(staticCompressionRatio({ ...s, chamberCc: chamber.value }), target),
           ).toBeLessThan(1e-9);
         } else {
+          unsolvedChamber++;
           expect(chamber.errors[0]?.field).toBe("chamberCc");
         }
       }),
       { numRuns: 300 },
     );
-    expect(solvedGasket).toBeGreaterThan(10);
-    expect(solvedChamber).toBeGreaterThan(10);
+    // both the answer and the refusal of each solver are reached
+    expect({ solvedGasket, unsolvedGasket, solvedChamber, unsolvedChamber }).toEqual({
+      solvedGasket: expect.toSatisfy((n: number) => n >= 30),
+      unsolvedGasket: expect.toSatisfy((n: number) => n >= 30),
+      solvedChamber: expect.toSatisfy((n: number) => n >= 30),
+      unsolvedChamber: expect.toSatisfy((n: number) => n >= 30),
+    });
   });
 
   it("the dynamic ratio is below the static for any closing after BDC, equal at BDC", () => {
+    let strict = 0;
     fc.assert(
       fc.property(dynamicSpec, (s) => {
         const scr = staticCompressionRatio(s);
@@ -135,9 +162,14 @@ describe("properties", () => {
         expect(dcr).toBeLessThanOrEqual(scr);
         expect(dcr).toBeGreaterThanOrEqual(1);
         // strictly below once the closing is late enough for the difference to show in double precision
-        if (s.intakeClosesAbdcDeg >= 0.1) expect(dcr).toBeLessThan(scr);
+        if (s.intakeClosesAbdcDeg >= 0.1) {
+          strict += 1;
+          expect(dcr).toBeLessThan(scr);
+        }
       }),
+      { numRuns: 300 },
     );
+    expect(strict).toBeGreaterThan(60);
   });
 
   it("peak piston speed is the largest speed over the stroke", () => {
@@ -182,31 +214,47 @@ describe("properties", () => {
   );
   const maybe = <T>(a: fc.Arbitrary<T>) => fc.option(a, { nil: undefined, freq: 4 });
 
+  // a physical package with some of its numbers left out: computeSpec answers with figures
+  const physicalWithGaps = fc
+    .tuple(dynamicSpec, num(1000, 10000), fc.array(fc.boolean(), { minLength: 12, maxLength: 12 }))
+    .map(([s, rpm, drop]) => {
+      const full: Record<string, number> = { ...s, revLimitRpm: rpm, cylinders: 2 };
+      const keys = Object.keys(full);
+      return Object.fromEntries(
+        keys.filter((_, i) => !drop[i % drop.length] || i < 2).map((k) => [k, full[k]!]),
+      );
+    });
+
   it("computeSpec never throws and never returns NaN", () => {
+    const seen = { ok: 0, errors: 0 };
     fc.assert(
       fc.property(
-        fc.record({
-          boreMm: maybe(anyNumber),
-          strokeMm: maybe(anyNumber),
-          cylinders: maybe(fc.oneof(fc.integer({ min: -3, max: 12 }), fc.double())),
-          chamberCc: maybe(anyNumber),
-          gasketBoreMm: maybe(anyNumber),
-          gasketThicknessMm: maybe(anyNumber),
-          deckClearanceMm: maybe(anyNumber),
-          pistonDomeCc: maybe(anyNumber),
-          rodLengthMm: maybe(anyNumber),
-          intakeClosesAbdcDeg: maybe(anyNumber),
-          revLimitRpm: maybe(fc.oneof(fc.double(), num(100, 20000))),
-          thresholds: maybe(
-            fc.record({ staticCrMax: maybe(anyNumber), quenchMinMm: maybe(anyNumber) }),
-          ),
-        }),
+        fc.oneof(
+          physicalWithGaps,
+          fc.record({
+            boreMm: maybe(anyNumber),
+            strokeMm: maybe(anyNumber),
+            cylinders: maybe(fc.oneof(fc.integer({ min: -3, max: 12 }), fc.double())),
+            chamberCc: maybe(anyNumber),
+            gasketBoreMm: maybe(anyNumber),
+            gasketThicknessMm: maybe(anyNumber),
+            deckClearanceMm: maybe(anyNumber),
+            pistonDomeCc: maybe(anyNumber),
+            rodLengthMm: maybe(anyNumber),
+            intakeClosesAbdcDeg: maybe(anyNumber),
+            revLimitRpm: maybe(fc.oneof(fc.double(), num(100, 20000))),
+            thresholds: maybe(
+              fc.record({ staticCrMax: maybe(anyNumber), quenchMinMm: maybe(anyNumber) }),
+            ),
+          }),
+        ),
         (spec) => {
           let r: ReturnType<typeof computeSpec> | undefined;
           expect(() => {
             r = computeSpec(spec);
           }).not.toThrow();
           if (r === undefined) return;
+          seen[r.ok ? "ok" : "errors"] += 1;
           if (r.ok) {
             for (const v of Object.values(r.results)) {
               if (v !== null) expect(Number.isFinite(v)).toBe(true);
@@ -231,10 +279,14 @@ describe("properties", () => {
       ),
       { numRuns: 2000 },
     );
+    // both the figures and the named errors are checked often
+    expect(seen.ok).toBeGreaterThan(500);
+    expect(seen.errors).toBeGreaterThan(500);
   });
 
   it("computeSpec gives finite figures or named errors for complete packages of any magnitude", () => {
     const pos = fc.double({ min: Number.MIN_VALUE, max: Number.MAX_VALUE, noNaN: true });
+    const magnitude = { ok: 0, errors: 0 };
     fc.assert(
       fc.property(
         fc.record({
@@ -251,6 +303,7 @@ describe("properties", () => {
         }),
         (spec) => {
           const r = computeSpec(spec);
+          magnitude[r.ok ? "ok" : "errors"] += 1;
           if (r.ok) {
             for (const v of Object.values(r.results))
               expect(v === null || Number.isFinite(v)).toBe(true);
@@ -261,6 +314,9 @@ describe("properties", () => {
       ),
       { numRuns: 2000 },
     );
+    expect(magnitude).toEqual({ ok: expect.any(Number), errors: expect.any(Number) });
+    expect(magnitude.ok).toBeGreaterThan(0);
+    expect(magnitude.errors).toBeGreaterThan(0);
   });
 
   it("computeSpec succeeds on every physical package", () => {

@@ -361,7 +361,8 @@ describe("validateSpec", () => {
 
 describe("worked steps show inputs without a floating-point tail", () => {
   it("a bore entered in inches reads as millimetres to 9 significant figures", () => {
-    // 4.31 in × 25.4 = 109.474 mm exactly (1 in = 25.4 mm, NBS 1960 notice); in binary
+    // 4.31 in × 25.4 = 109.474 mm exactly (1 in = 25.4 mm: "Refinement of Values for the Yard and
+    // the Pound", Federal Register notice of 1 July 1959, F.R. Doc. 59-5442); in binary
     // floating point the product is 109.47399999999999.
     const r = computeSpec({ boreMm: 4.31 * 25.4, strokeMm: 114.3 });
     if (!r.ok) throw new Error("expected ok");

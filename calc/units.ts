@@ -3,7 +3,8 @@
  *
  * Every constant here is exact by definition (1 in = 25.4 mm; 1 lb = 0.45359237 kg;
  * standard gravity 9.80665 m/s²; 1 mechanical hp = 550 ft·lbf/s) or follows from those
- * by multiplication. Conversions are plain functions on numbers; they do not validate.
+ * by multiplication, except the conventional inch of mercury, NIST's rounded figure.
+ * Conversions are plain functions on numbers; they do not validate.
  */
 
 /** Millimetres per inch (exact). */
@@ -65,9 +66,16 @@ export function cToF(c: number): number {
 export function fToC(f: number): number {
   return ((f - 32) * 5) / 9;
 }
-/** Kilopascals per inch of mercury at 0 °C (NIST SP 811, 2008, App. B.8: 3.386 389 E+03 Pa). */
-export const KPA_PER_INHG = 3.386389;
-/** Inches of mercury (0 °C) to kilopascals. */
+/**
+ * Kilopascals per conventional inch of mercury (NIST SP 811, 2008 edition, Appendix B.8,
+ * "inch of mercury, conventional (inHg)": 3.386 389 E+03 Pa). Not the inch of mercury at
+ * 32 °F, a separate entry of the same table (3.386 38 E+03 Pa). Barometers and dyno
+ * weather stations read in the conventional unit.
+ */
+export const KPA_PER_INHG_CONVENTIONAL = 3.386389;
+/** @deprecated the same constant under its earlier name; use KPA_PER_INHG_CONVENTIONAL */
+export const KPA_PER_INHG = KPA_PER_INHG_CONVENTIONAL;
+/** Conventional inches of mercury to kilopascals. */
 export function inHgToKPa(inHg: number): number {
-  return inHg * KPA_PER_INHG;
+  return inHg * KPA_PER_INHG_CONVENTIONAL;
 }

@@ -98,6 +98,33 @@ const slotJumps: KeyboardCoordinateGetter = (event, { currentCoordinates, contex
   };
 };
 
+/**
+ * dnd-kit's keyboard sensor starts listening for keys in a timer after the lift (so that
+ * the Space that lifted the card does not also drop it). A browser answers key presses
+ * before timers, so an arrow pressed right after "Picked up" was lost while the page was
+ * busy. This sensor hears every key from the moment of the lift: until dnd-kit's own
+ * listener is attached, a capturing listener hands the keys to the sensor, and keeps them
+ * from reaching dnd-kit's listener a second time.
+ */
+class PromptKeyboardSensor extends KeyboardSensor {
+  constructor(props: ConstructorParameters<typeof KeyboardSensor>[0]) {
+    super(props);
+    const lifting = props.event;
+    const handle = (this as unknown as { handleKeyDown: (e: Event) => void }).handleKeyDown;
+    const doc = (lifting.target as Node | null)?.ownerDocument ?? document;
+    const early = (e: KeyboardEvent) => {
+      if (e === lifting) return;
+      e.stopImmediatePropagation();
+      handle(e);
+      if (["Space", "Enter", "Escape"].includes(e.code)) stop();
+    };
+    const stop = () => doc.removeEventListener("keydown", early, true);
+    doc.addEventListener("keydown", early, true);
+    // queued after dnd-kit's own timer, so its listener is attached by then
+    setTimeout(stop);
+  }
+}
+
 export default function Bench({ loaderData }: Route.ComponentProps) {
   const { header, canEdit } = loaderData;
   const bench = useBenchQueue(loaderData.state, Object.values(loaderData.options).flat());
@@ -107,7 +134,7 @@ export default function Bench({ loaderData }: Route.ComponentProps) {
   const sensors = useSensors(
     useSensor(MouseSensor, { activationConstraint: { distance: 4 } }),
     useSensor(TouchSensor, { activationConstraint: { delay: 150, tolerance: 6 } }),
-    useSensor(KeyboardSensor, { coordinateGetter: slotJumps }),
+    useSensor(PromptKeyboardSensor, { coordinateGetter: slotJumps }),
   );
   const fields = resolveFields(bench.spec, bench.parts);
 

@@ -1,37 +1,62 @@
-// Who may open what: every route × every role (and signed out) → the expected outcome,
-// against the real test database.
+// Who may open what: every route × method × intent × every role (and signed out) → the
+// expected outcome, against the real test database.
 //
-// How it works: each row names a path (and method). A small dispatcher matches the path
-// against the real route config (app/routes.ts, with React Router's own matcher), loads
-// that route module and calls its `loader` (GET) or `action` (POST) with a real Request
-// signed in as a fresh user of each role (a real session row and signed cookie). What it
-// returns or throws is classified:
-//   "ok"        rendered: data, a 2xx, or a 4xx that shows the form again with errors
+// How it works: each row names a path, a method and, for an action, the intent it sends.
+// A small dispatcher matches the path against the real route config (app/routes.ts, with
+// React Router's own matcher), loads that route module and calls its `loader` (GET) or
+// `action` (POST) with a real Request signed in as a fresh user of each role (a real
+// session row and signed cookie). A POST row's body is a valid one, made fresh for each
+// call by `prepare` (a package, a part, a rule, a staff account of its own), so an allowed
+// action must complete. What it returns or throws is classified:
+//   "ok"        rendered or done: data or a 2xx
+//   "redirect"  a redirect elsewhere (an action done, or a page moved on)
 //   "login"     a redirect to /login (signed out)
-//   "redirect"  a redirect elsewhere
-//   403 / 404   refused / nothing there
+//   "invalid"   a 4xx form answer (400, 401 from the sign-in form, 409, 410): the input was
+//               refused, only for rows that send a bad body on purpose
+//   401 / 403 / 404   a JSON route signed out / refused / nothing there
 //
-// Every route in app/routes.ts must appear here at least once (the last test checks).
-// Adding a route? Add a row: { path, method?, body?, expect: { signedOut, owner, builder,
-// service_writer, apprentice } }. `all(x)` and `staffOnly(...)` shorten common rows.
+// Completeness (the last tests): every route module's loader has a GET row, its action a
+// POST row, and every intent its source names a row of its own.
+import { randomBytes } from "node:crypto";
+import { readdirSync, readFileSync, statSync } from "node:fs";
 import { matchRoutes, type RouteObject } from "react-router";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Role } from "../../db/schema/core";
 import { startMailCatcher } from "../../scripts/services/mail-catcher";
 import { createTestUser, requestAs, signedOutRequest, type TestUser } from "../support/auth";
+import { asFromPage } from "../support/honeypot";
 
 // /dev/outbox exists only with the local mail server; give it one for these rows.
 const catcher = await startMailCatcher({ quiet: true });
 process.env.LOCAL_MAIL_API_URL = catcher.apiUrl;
 const { getDb } = await import("~/lib/db.server");
 const routeConfig = (await import("~/routes")).default;
+const { createPackage } = await import("~/lib/packages/store.server");
+const { runBenchAction } = await import("~/lib/bench/action.server");
+const { createRule } = await import("~/lib/fit-rules/rules.server");
+const { createToken } = await import("~/lib/auth/tokens.server");
+const { ensureBuiltInCategories } = await import("~/lib/catalog/parts.server");
 
-type Outcome = "ok" | "login" | "redirect" | 401 | 403 | 404;
+type Outcome = "ok" | "login" | "redirect" | "invalid" | 401 | 403 | 404 | 405;
 type Who = "signedOut" | Role;
+type Prepared = {
+  vars?: Record<string, string | number>;
+  /** a url-encoded form body */
+  body?: Record<string, string>;
+  /** a multipart form body (a file upload) */
+  form?: FormData;
+  /** a JSON body */
+  json?: unknown;
+};
 type Row = {
+  /** the path; `{name}` parts are filled from what `prepare` made */
   path: string;
   method?: "GET" | "POST";
+  /** the intent (or mode) a POST row sends, for the completeness check */
+  intent?: string;
   body?: Record<string, string>;
+  /** made fresh for every call: ids for the path and a valid body */
+  prepare?: () => Promise<Prepared>;
   expect: Record<Who, Outcome>;
 };
 
@@ -50,6 +75,12 @@ const staffOnly = (...roles: Role[]): Row["expect"] => ({
   service_writer: roles.includes("service_writer") ? "ok" : 403,
   apprentice: roles.includes("apprentice") ? "ok" : 403,
 });
+/** As staffOnly, with the listed roles' outcome named: an action done by a redirect. */
+const staffDone = (...roles: Role[]): Row["expect"] => {
+  const e = staffOnly(...roles);
+  for (const r of roles) e[r] = "redirect";
+  return e;
+};
 const signedInRedirect: Row["expect"] = {
   signedOut: "ok",
   owner: "redirect",
@@ -58,34 +89,288 @@ const signedInRedirect: Row["expect"] = {
   apprentice: "redirect",
 };
 
+// ---- fixtures: each call makes its own, so every role's try starts from the same state ----
+
+const tag = () => randomBytes(4).toString("hex");
+let bikeOnce: Promise<number> | undefined;
+const bikeId = () =>
+  (bikeOnce ??= (async () => {
+    const c = await getDb()
+      .insertInto("customers")
+      .values({ name: `Access ${tag()}`, notes: "" })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    return (
+      await getDb()
+        .insertInto("bikes")
+        .values({ customer_id: c.id, year: 2020, model: "Access twin", notes: "" })
+        .returning("id")
+        .executeTakeFirstOrThrow()
+    ).id;
+  })());
+async function newPart(over: { category?: string; attributes?: object; archived?: boolean } = {}) {
+  return (
+    await getDb()
+      .insertInto("parts")
+      .values({
+        part_number: `ACC-${tag()}`,
+        category: over.category ?? "cylinders",
+        maker: "Test Works",
+        name: "Access part",
+        price_cents: 10000,
+        tags: [],
+        stock: false,
+        attributes: JSON.stringify(over.attributes ?? { boreMm: 101.6 }),
+        archived_at: over.archived ? new Date() : null,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow()
+  ).id;
+}
+async function newPackage(isTemplate = false) {
+  return createPackage(
+    getDb(),
+    {
+      name: `Access ${tag()}`,
+      bikeId: isTemplate ? null : await bikeId(),
+      isTemplate,
+      builderId: null,
+    },
+    null,
+  );
+}
+/** A package with a second revision, and its cylinder slot filled, by the owner. */
+async function benchedPackage() {
+  const id = await newPackage();
+  const form = new FormData();
+  for (const [k, v] of Object.entries({
+    intent: "set-part",
+    slot: "cylinder",
+    partId: String(await newPart()),
+    expectedRevision: "1",
+  }))
+    form.set(k, v);
+  const out = (await runBenchAction(getDb(), users.owner, id, form)) as {
+    init?: { status?: number };
+  };
+  if ((out.init?.status ?? 200) !== 200) throw new Error("bench fixture did not save");
+  return id;
+}
+async function newRule() {
+  const r = await createRule(
+    getDb(),
+    {
+      name: `Access rule ${tag()}`,
+      kind: "caution",
+      condition: "power_hp > 500",
+      message: "Check it.",
+      upgrade_category: null,
+      suggested_part_id: null,
+      active: true,
+    },
+    null,
+  );
+  if (!r.ok) throw new Error("rule fixture did not save");
+  return r.rule.id;
+}
+const ruleForm = (over: Record<string, string> = {}) => ({
+  intent: "save",
+  name: `Access rule ${tag()}`,
+  kind: "caution",
+  condition: "power_hp > 400",
+  message: "Check it.",
+  active: "on",
+  ...over,
+});
+const pairForm = (intent: string) => ({
+  intent,
+  name: `Access pair ${tag()}`,
+  a: `acc-a-${tag()}`,
+  b: `acc-b-${tag()}`,
+  message: "These two do not go together.",
+});
+const partForm = () => ({
+  part_number: `ACC-${tag()}`,
+  category: "cylinders",
+  maker: "Test Works",
+  name: "Access part",
+  price: "100",
+  labour_hours: "1",
+  tags: "",
+  notes: "",
+  "attributes.boreMm": "101.6",
+});
+const CSV_HEAD = "part_number,category,maker,name,price,labour_hours,tags,stock,attributes,notes";
+const csvLine = () => `ACC-${tag()},cylinders,Test Works,Access part,100,1,,no,boreMm=101.6,`;
+const staffTarget = async () => ({ userId: (await createTestUser(getDb(), "apprentice")).id });
+
 export const ROWS: Row[] = [
   { path: "/", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
   { path: "/healthz", expect: all("ok") },
   { path: "/login", expect: signedInRedirect },
-  { path: "/login", method: "POST", body: { email: "", password: "" }, expect: all("ok") },
+  {
+    path: "/login",
+    method: "POST",
+    intent: "sign-in",
+    prepare: async () => {
+      const u = await createTestUser(getDb(), "builder");
+      return { body: asFromPage({ email: u.email, password: u.password }) };
+    },
+    expect: all("redirect"),
+  },
+  { path: "/login", method: "POST", body: { email: "", password: "" }, expect: all("invalid") },
   { path: "/logout", expect: all("redirect") },
-  { path: "/logout", method: "POST", expect: all("login") },
+  { path: "/logout", method: "POST", intent: "sign-out", expect: all("login") },
   { path: "/invite/not-a-token", expect: all("ok") },
-  { path: "/invite/not-a-token", method: "POST", body: { name: "" }, expect: all("ok") },
+  {
+    path: "/invite/{token}",
+    method: "POST",
+    intent: "accept",
+    prepare: async () => {
+      const { token } = await createToken(getDb(), {
+        kind: "invite",
+        email: `access-${tag()}@crew.test`,
+        role: "apprentice",
+      });
+      return {
+        vars: { token },
+        body: asFromPage({
+          name: "Ines Marlow",
+          password: "long-enough-pass",
+          confirm: "long-enough-pass",
+        }),
+      };
+    },
+    expect: all("redirect"),
+  },
+  { path: "/invite/not-a-token", method: "POST", body: { name: "" }, expect: all("invalid") },
   { path: "/reset", expect: all("ok") },
-  { path: "/reset", method: "POST", body: { email: "" }, expect: all("ok") },
+  {
+    path: "/reset",
+    method: "POST",
+    intent: "request",
+    prepare: async () => ({ body: asFromPage({ email: `nobody-${tag()}@crew.test` }) }),
+    expect: all("ok"),
+  },
   { path: "/reset/not-a-token", expect: all("ok") },
-  { path: "/reset/not-a-token", method: "POST", body: { password: "" }, expect: all("ok") },
+  {
+    path: "/reset/{token}",
+    method: "POST",
+    intent: "new-password",
+    prepare: async () => {
+      const u = await createTestUser(getDb(), "apprentice");
+      const { token } = await createToken(getDb(), { kind: "reset", email: u.email, userId: u.id });
+      return {
+        vars: { token },
+        body: asFromPage({ password: "fresh-password-77", confirm: "fresh-password-77" }),
+      };
+    },
+    expect: all("redirect"),
+  },
+  { path: "/reset/not-a-token", method: "POST", body: { password: "" }, expect: all("invalid") },
   { path: "/staff", expect: staffOnly("owner") },
   {
     path: "/staff",
     method: "POST",
-    body: { intent: "invite", email: "" },
+    intent: "invite",
+    prepare: async () => ({
+      body: { intent: "invite", email: `access-${tag()}@crew.test`, role: "builder" },
+    }),
     expect: staffOnly("owner"),
+  },
+  {
+    path: "/staff",
+    method: "POST",
+    intent: "role",
+    prepare: async () => ({
+      body: { intent: "role", userId: String((await staffTarget()).userId), role: "builder" },
+    }),
+    expect: staffOnly("owner"),
+  },
+  {
+    path: "/staff",
+    method: "POST",
+    intent: "disable",
+    prepare: async () => ({
+      body: { intent: "disable", userId: String((await staffTarget()).userId) },
+    }),
+    expect: staffOnly("owner"),
+  },
+  {
+    path: "/staff",
+    method: "POST",
+    intent: "enable",
+    prepare: async () => {
+      const u = await createTestUser(getDb(), "apprentice", { disabled_at: new Date() });
+      return { body: { intent: "enable", userId: String(u.id) } };
+    },
+    expect: staffOnly("owner"),
+  },
+  {
+    path: "/staff",
+    method: "POST",
+    intent: "revoke",
+    prepare: async () => {
+      const { row } = await createToken(getDb(), {
+        kind: "invite",
+        email: `access-${tag()}@crew.test`,
+        role: "builder",
+      });
+      return { body: { intent: "revoke", inviteId: String(row.id) } };
+    },
+    expect: staffOnly("owner"),
+  },
+  {
+    path: "/staff",
+    method: "POST",
+    body: { intent: "invite", email: "" },
+    expect: { ...staffOnly("owner"), owner: "invalid" },
   },
   { path: "/dev/outbox", expect: staffOnly("owner") },
   { path: "/dev/outbox/999999", expect: { ...staffOnly("owner"), owner: 404 } },
   { path: "/packages", expect: staffOnly("owner", "builder", "service_writer") },
   { path: "/packages/new", expect: staffOnly("owner", "builder", "service_writer") },
+  ...(["scratch", "new-template"] as const).map((mode): Row => ({
+    path: "/packages/new",
+    method: "POST",
+    intent: mode,
+    prepare: async () => ({
+      body: {
+        mode,
+        name: `Access ${tag()}`,
+        bikeId: mode === "scratch" ? String(await bikeId()) : "",
+      },
+    }),
+    expect: staffDone("owner", "builder", "service_writer"),
+  })),
+  ...(["copy", "template"] as const).map((mode): Row => ({
+    path: "/packages/new",
+    method: "POST",
+    intent: mode,
+    prepare: async () => ({
+      body: {
+        mode,
+        name: `Access ${tag()}`,
+        bikeId: String(await bikeId()),
+        sourceId: String(await newPackage(mode === "template")),
+      },
+    }),
+    expect: staffDone("owner", "builder", "service_writer"),
+  })),
   {
     path: "/packages/new",
     method: "POST",
     body: { mode: "scratch", name: "" },
+    expect: {
+      ...staffOnly("owner", "builder", "service_writer"),
+      owner: "invalid",
+      builder: "invalid",
+      service_writer: "invalid",
+    },
+  },
+  {
+    path: "/packages/{id}",
+    prepare: async () => ({ vars: { id: await newPackage() } }),
     expect: staffOnly("owner", "builder", "service_writer"),
   },
   {
@@ -98,10 +383,24 @@ export const ROWS: Row[] = [
     },
   },
   {
-    path: "/packages/999999",
+    path: "/packages/{id}",
     method: "POST",
-    body: { intent: "status", to: "quoted" },
+    intent: "status",
+    prepare: async () => ({
+      vars: { id: await newPackage() },
+      body: { intent: "status", to: "quoted" },
+    }),
     expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
+    path: "/packages/{id}",
+    method: "POST",
+    intent: "restore",
+    prepare: async () => ({
+      vars: { id: await benchedPackage() },
+      body: { intent: "restore", revision: "1", expectedRevision: "2" },
+    }),
+    expect: staffOnly("owner", "builder"),
   },
   {
     path: "/packages/999999",
@@ -110,6 +409,11 @@ export const ROWS: Row[] = [
     expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
   },
   {
+    path: "/packages/{id}/bench",
+    prepare: async () => ({ vars: { id: await newPackage() } }),
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
     path: "/packages/999999/bench",
     expect: {
       ...staffOnly("owner", "builder", "service_writer"),
@@ -119,11 +423,37 @@ export const ROWS: Row[] = [
     },
   },
   {
-    path: "/packages/999999/bench",
+    path: "/packages/{id}/bench",
     method: "POST",
-    body: { intent: "set-units", units: "metric" },
+    intent: "set-units",
+    prepare: async () => ({
+      vars: { id: await newPackage() },
+      body: { intent: "set-units", units: "inch" },
+    }),
     expect: staffOnly("owner", "builder", "service_writer"),
   },
+  ...(
+    [
+      ["set-part", async () => ({ slot: "cylinder", partId: String(await newPart()) })],
+      ["clear-slot", async () => ({ slot: "cylinder" })],
+      [
+        "set-measured",
+        async () => ({ slot: "cylinder", field: "boreMm", value: "101.7", unit: "mm" }),
+      ],
+      ["revert-measured", async () => ({ slot: "cylinder", field: "boreMm" })],
+      ["set-number", async () => ({ field: "powerHp", value: "120", unit: "hp" })],
+      ["set-basis", async () => ({ value: "target" })],
+    ] as const
+  ).map(([intent, fields]): Row => ({
+    path: "/packages/{id}/bench",
+    method: "POST",
+    intent,
+    prepare: async () => ({
+      vars: { id: await benchedPackage() },
+      body: { intent, ...(await fields()), expectedRevision: "2" },
+    }),
+    expect: staffOnly("owner", "builder"),
+  })),
   {
     path: "/packages/999999/bench",
     method: "POST",
@@ -136,6 +466,11 @@ export const ROWS: Row[] = [
     expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), signedOut: 401 },
   },
   {
+    path: "/api/packages/{id}",
+    prepare: async () => ({ vars: { id: await newPackage() } }),
+    expect: { ...staffOnly("owner", "builder", "service_writer"), signedOut: 401 },
+  },
+  {
     path: "/api/packages/999999",
     expect: {
       ...staffOnly("owner", "builder", "service_writer"),
@@ -145,25 +480,82 @@ export const ROWS: Row[] = [
       service_writer: 404,
     },
   },
+  // GET /api/calc answers what to use instead, to those who may use it
+  {
+    path: "/api/calc",
+    expect: {
+      signedOut: 401,
+      owner: 405,
+      builder: 405,
+      service_writer: 405,
+      apprentice: 405,
+    },
+  },
   {
     path: "/api/calc",
     method: "POST",
-    body: { boreMm: "x" },
+    body: { boreMm: "not json" },
+    expect: {
+      signedOut: 401,
+      owner: "invalid",
+      builder: "invalid",
+      service_writer: "invalid",
+      apprentice: "invalid",
+    },
+  },
+  {
+    path: "/api/calc",
+    method: "POST",
+    intent: "compute",
+    prepare: async () => ({ json: { boreMm: 101.6, strokeMm: 114.3, cylinders: 2 } }),
     expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), signedOut: 401 },
   },
   { path: "/parts", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
-  { path: "/parts", method: "POST", body: { label: "" }, expect: staffOnly("owner") },
+  {
+    path: "/parts",
+    method: "POST",
+    intent: "add-category",
+    prepare: async () => ({ body: { label: `Access shelf ${tag()}` } }),
+    expect: staffOnly("owner"),
+  },
   { path: "/parts/new", expect: staffOnly("owner") },
-  { path: "/parts/new", method: "POST", body: { part_number: "" }, expect: staffOnly("owner") },
+  {
+    path: "/parts/new",
+    method: "POST",
+    intent: "save",
+    prepare: async () => ({ body: partForm() }),
+    expect: staffDone("owner"),
+  },
   { path: "/parts/import", expect: staffOnly("owner") },
   {
     path: "/parts/import",
     method: "POST",
-    body: { intent: "preview" },
+    intent: "preview",
+    prepare: async () => {
+      const body = new FormData();
+      body.set("intent", "preview");
+      body.set(
+        "file",
+        new File([`${CSV_HEAD}\n${csvLine()}\n`], "parts.csv", { type: "text/csv" }),
+      );
+      return { form: body };
+    },
+    expect: staffOnly("owner"),
+  },
+  {
+    path: "/parts/import",
+    method: "POST",
+    intent: "import",
+    prepare: async () => ({ body: { intent: "import", csv: `${CSV_HEAD}\n${csvLine()}\n` } }),
     expect: staffOnly("owner"),
   },
   {
     path: "/parts/export.csv",
+    expect: staffOnly("owner", "builder", "service_writer", "apprentice"),
+  },
+  {
+    path: "/parts/{id}",
+    prepare: async () => ({ vars: { id: await newPart() } }),
     expect: staffOnly("owner", "builder", "service_writer", "apprentice"),
   },
   {
@@ -177,6 +569,33 @@ export const ROWS: Row[] = [
     },
   },
   {
+    path: "/parts/{id}",
+    method: "POST",
+    intent: "save",
+    prepare: async () => ({
+      vars: { id: await newPart() },
+      body: { ...partForm(), intent: "save", version: "1" },
+    }),
+    expect: staffDone("owner"),
+  },
+  {
+    path: "/parts/{id}",
+    method: "POST",
+    intent: "archive",
+    prepare: async () => ({ vars: { id: await newPart() }, body: { intent: "archive" } }),
+    expect: staffDone("owner"),
+  },
+  {
+    path: "/parts/{id}",
+    method: "POST",
+    intent: "restore",
+    prepare: async () => ({
+      vars: { id: await newPart({ archived: true }) },
+      body: { intent: "restore" },
+    }),
+    expect: staffDone("owner"),
+  },
+  {
     path: "/parts/999999",
     method: "POST",
     body: { intent: "archive" },
@@ -184,11 +603,30 @@ export const ROWS: Row[] = [
   },
   { path: "/rules", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
   { path: "/rules/new", expect: staffOnly("owner") },
+  ...(["save", "preview"] as const).map((intent): Row => ({
+    path: "/rules/new",
+    method: "POST",
+    intent,
+    prepare: async () => ({ body: ruleForm({ intent }) }),
+    expect: intent.endsWith("save") ? staffDone("owner") : staffOnly("owner"),
+  })),
+  ...(["pair-save", "pair-preview"] as const).map((intent): Row => ({
+    path: "/rules/new",
+    method: "POST",
+    intent,
+    prepare: async () => ({ body: pairForm(intent) }),
+    expect: intent.endsWith("save") ? staffDone("owner") : staffOnly("owner"),
+  })),
   {
     path: "/rules/new",
     method: "POST",
     body: { intent: "save", name: "" },
-    expect: staffOnly("owner"),
+    expect: { ...staffOnly("owner"), owner: "invalid" },
+  },
+  {
+    path: "/rules/{id}",
+    prepare: async () => ({ vars: { id: await newRule() } }),
+    expect: staffOnly("owner", "builder", "service_writer", "apprentice"),
   },
   {
     path: "/rules/999999",
@@ -200,6 +638,23 @@ export const ROWS: Row[] = [
       apprentice: 404,
     },
   },
+  ...(["save", "preview"] as const).map((intent): Row => ({
+    path: "/rules/{id}",
+    method: "POST",
+    intent,
+    prepare: async () => ({
+      vars: { id: await newRule() },
+      body: ruleForm({ intent, version: "1" }),
+    }),
+    expect: intent.endsWith("save") ? staffDone("owner") : staffOnly("owner"),
+  })),
+  ...(["pair-save", "pair-preview"] as const).map((intent): Row => ({
+    path: "/rules/{id}",
+    method: "POST",
+    intent,
+    prepare: async () => ({ vars: { id: await newRule() }, body: pairForm(intent) }),
+    expect: intent.endsWith("save") ? staffDone("owner") : staffOnly("owner"),
+  })),
   {
     path: "/rules/999999",
     method: "POST",
@@ -264,15 +719,15 @@ function classify(value: unknown): Outcome | `status ${number}` {
   if (status >= 300 && status < 400) return location?.startsWith("/login") ? "login" : "redirect";
   if (status === 403) return 403;
   if (status === 404) return 404;
-  if (status < 300 || (status >= 400 && status < 500 && status !== 401 && status !== 405))
-    return "ok";
+  if (status === 405) return 405; // a JSON route asked with the wrong method
+  if (status >= 200 && status < 300) return "ok";
   if (
     status === 401 &&
     value instanceof Response &&
     value.headers.get("Content-Type")?.includes("json")
   )
     return 401; // a JSON route, signed out
-  if (status === 401) return "ok"; // the sign-in form answering a wrong password
+  if ([400, 401, 409, 410, 413, 422].includes(status)) return "invalid";
   return `status ${status}`;
 }
 
@@ -288,27 +743,41 @@ async function outcome(request: Request) {
 
 const users = {} as Record<Role, TestUser>;
 beforeAll(async () => {
+  await ensureBuiltInCategories(getDb());
   for (const role of ["owner", "builder", "service_writer", "apprentice"] as const)
     users[role] = await createTestUser(getDb(), role);
 });
 
 afterAll(() => catcher.stop());
 
+/** The row's request for one caller, with a body and ids made fresh by `prepare`. */
+async function requestFor(row: Row, who: Who, headers: Record<string, string> = {}) {
+  const method = row.method ?? "GET";
+  const made: Prepared = row.prepare ? await row.prepare() : {};
+  const path = row.path.replace(/\{(\w+)\}/g, (_, k: string) => {
+    const v = made.vars?.[k];
+    if (v === undefined) throw new Error(`${row.path}: prepare gave no ${k}`);
+    return encodeURIComponent(String(v));
+  });
+  const init: RequestInit = { method, headers: { ...headers } };
+  if (method === "POST") {
+    if (made.json !== undefined) {
+      init.body = JSON.stringify(made.json);
+      (init.headers as Record<string, string>)["Content-Type"] = "application/json";
+    } else init.body = made.form ?? new URLSearchParams(made.body ?? row.body ?? {});
+  }
+  return who === "signedOut" ? signedOutRequest(path, init) : requestAs(users[who], path, init);
+}
+
+const rowName = (row: Row) =>
+  `${row.method ?? "GET"} ${row.path}${row.intent ? ` (${row.intent})` : row.method === "POST" ? " (a bad body)" : ""}`;
+
 describe("access table", () => {
   for (const row of ROWS) {
-    const method = row.method ?? "GET";
-    describe(`${method} ${row.path}`, () => {
+    describe(rowName(row), () => {
       for (const who of Object.keys(row.expect) as Who[]) {
         it(`${who} → ${row.expect[who]}`, async () => {
-          const init: RequestInit = {
-            method,
-            body: method === "POST" ? new URLSearchParams(row.body ?? {}) : undefined,
-          };
-          const request =
-            who === "signedOut"
-              ? signedOutRequest(row.path, init)
-              : await requestAs(users[who], row.path, init);
-          expect(await outcome(request)).toBe(row.expect[who]);
+          expect(await outcome(await requestFor(row, who))).toBe(row.expect[who]);
         });
       }
     });
@@ -317,27 +786,82 @@ describe("access table", () => {
   it("refuses every POST sent from another site, whoever is signed in", async () => {
     for (const row of ROWS.filter((r) => r.method === "POST")) {
       for (const who of ["signedOut", "owner"] as const) {
-        const init: RequestInit = {
-          method: "POST",
-          body: new URLSearchParams(row.body ?? {}),
-          headers: { Origin: "http://elsewhere.test" },
-        };
-        const request =
-          who === "signedOut"
-            ? signedOutRequest(row.path, init)
-            : await requestAs(users[who], row.path, init);
-        expect(await outcome(request), `${who} POST ${row.path}`).toBe(403);
+        const request = await requestFor(row, who, { Origin: "http://elsewhere.test" });
+        expect(await outcome(request), `${who} ${rowName(row)}`).toBe(403);
       }
     }
   });
 
-  it("lists every route of app/routes.ts", () => {
-    const covered = new Set(
-      ROWS.map(
-        (r) => matchRoutes(routeObjects, new URL(r.path, "http://x").pathname)?.at(-1)?.route.id,
-      ),
-    );
-    const missing = configFiles(routeConfig as ConfigEntry[]).filter((f) => !covered.has(f));
-    expect(missing, "routes without a row in the access table").toEqual([]);
+  const routeOf = (path: string) =>
+    matchRoutes(routeObjects, new URL(path.replace(/\{\w+\}/g, "1"), "http://x").pathname)?.at(-1)
+      ?.route.id;
+
+  it("has a row for every route's loader (GET) and action (POST)", async () => {
+    const missing: string[] = [];
+    for (const file of configFiles(routeConfig as ConfigEntry[])) {
+      const mod = await modules[`../../app/${file}`]!();
+      for (const [method, fn] of [
+        ["GET", mod.loader],
+        ["POST", mod.action],
+      ] as const) {
+        if (!fn) continue;
+        const rows = ROWS.filter((r) => routeOf(r.path) === file && (r.method ?? "GET") === method);
+        if (rows.length === 0) missing.push(`${method} ${file}`);
+      }
+    }
+    expect(missing, "routes and methods without a row in the access table").toEqual([]);
+  });
+
+  // where each action reads its intents; a literal intent (or mode) found there needs a row
+  const INTENT_SOURCES: Record<string, string[]> = {
+    "routes/staff.tsx": ["app/routes/staff.tsx"],
+    "routes/packages.new.tsx": ["app/routes/packages.new.tsx"],
+    "routes/packages.$id.tsx": ["app/routes/packages.$id.tsx"],
+    "routes/packages.$id.bench.tsx": [
+      "app/routes/packages.$id.bench.tsx",
+      "app/lib/bench/intent.server.ts",
+    ],
+    "routes/parts.$id.tsx": ["app/routes/parts.$id.tsx", "app/components/catalog/part-form.tsx"],
+    "routes/parts.import.tsx": ["app/routes/parts.import.tsx"],
+    "routes/parts.new.tsx": ["app/routes/parts.new.tsx", "app/components/catalog/part-form.tsx"],
+    "routes/rules.new.tsx": ["app/components/fit-rules"],
+    "routes/rules.$id.tsx": ["app/components/fit-rules"],
+  };
+  const intentsIn = (path: string): string[] => {
+    const files = statSync(path).isDirectory()
+      ? readdirSync(path).map((f) => `${path}/${f}`)
+      : [path];
+    const found = new Set<string>();
+    for (const f of files) {
+      const text = readFileSync(f, "utf8");
+      for (const m of text.matchAll(
+        /intent"?\)?\s*===\s*"([a-z-]+)"|intent:\s*z\.literal\("([a-z-]+)"\)|mode:\s*z\.literal\("([a-z-]+)"\)|name="intent"\s+value="([a-z-]+)"|value="([a-z-]+)"\s+name="intent"/g,
+      ))
+        found.add(m.slice(1).find(Boolean)!);
+    }
+    return [...found];
+  };
+
+  it("has a row for every intent of every action", () => {
+    const missing: string[] = [];
+    for (const [file, sources] of Object.entries(INTENT_SOURCES)) {
+      const covered = new Set(
+        ROWS.filter((r) => r.method === "POST" && routeOf(r.path) === file).map((r) => r.intent),
+      );
+      const named = sources.flatMap(intentsIn);
+      expect(named.length, `no intents found for ${file}`).toBeGreaterThan(0);
+      for (const intent of named) if (!covered.has(intent)) missing.push(`${file}: ${intent}`);
+    }
+    expect(missing, "intents without a row in the access table").toEqual([]);
+  });
+
+  it("tries every allowed action with a valid body", () => {
+    const untried = ROWS.filter(
+      (r) =>
+        r.method === "POST" &&
+        !r.intent &&
+        Object.values(r.expect).some((o) => o === "ok" || o === "redirect"),
+    ).map(rowName);
+    expect(untried).toEqual([]);
   });
 });

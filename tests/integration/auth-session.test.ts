@@ -1,4 +1,4 @@
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { getUser, requireRole, requireUser, safeRedirect } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
 import {
@@ -136,5 +136,24 @@ describe("safeRedirect", () => {
     [null, "/"],
   ])("%s -> %s", (input, out) => {
     expect(safeRedirect(input)).toBe(out);
+  });
+});
+
+describe("the session cookie under https", () => {
+  it("is Secure when the app's address is https, and not otherwise", async () => {
+    const plain = await import("~/lib/auth/session.server");
+    expect(await plain.sessionCookie().serialize("x")).not.toMatch(/Secure/);
+    vi.stubEnv("APP_URL", "https://shop.tallgrass.test");
+    vi.resetModules();
+    try {
+      const tls = await import("~/lib/auth/session.server");
+      const header = await tls.sessionCookie().serialize("x");
+      expect(header).toMatch(/; Secure(;|$)/);
+      expect(header).toMatch(/; HttpOnly/);
+      expect(header).toMatch(/; SameSite=Lax/);
+    } finally {
+      vi.unstubAllEnvs();
+      vi.resetModules();
+    }
   });
 });

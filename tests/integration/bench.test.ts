@@ -6,7 +6,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { computeSpec } from "../../calc";
 import { getDb } from "~/lib/db.server";
 import { ensureBuiltInCategories } from "~/lib/catalog/parts.server";
-import { createRule } from "~/lib/fit-rules/rules.server";
+import { createRule, updateRule } from "~/lib/fit-rules/rules.server";
 import { createPackage } from "~/lib/packages/store.server";
 import { action as benchAction, loader as benchLoader } from "~/routes/packages.$id.bench";
 import { createTestUser, requestAs, type TestUser } from "../support/auth";
@@ -488,5 +488,240 @@ describe("bench actions", () => {
       context: {},
     } as never);
     expect(other.units).toBe("inch");
+  });
+});
+
+describe("bench input at the edges", () => {
+  async function archivedPart() {
+    const row = await db
+      .insertInto("parts")
+      .values({
+        part_number: `T-${tag}-archived-${randomBytes(2).toString("hex")}`,
+        category: "cylinders",
+        maker: "Test Works",
+        name: "Archived cylinder",
+        price_cents: 10000,
+        tags: [],
+        stock: false,
+        attributes: JSON.stringify({ boreMm: 104.8 }),
+        archived_at: new Date(),
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    return row.id;
+  }
+
+  it("refuses archived, unknown and wrong-category parts beside the slot, saving nothing", async () => {
+    const id = await newPackage();
+    const rev = await fill(id);
+    const cases: [string, string, string[]][] = [
+      ["cylinder", String(await archivedPart()), ["That part is not in the active catalog."]],
+      ["cylinder", "2147483000", ["That part is not in the active catalog."]],
+      [
+        "cylinder",
+        String(part.fly),
+        ["A flywheels part does not go in the bore (cylinders) slot."],
+      ],
+      ["gasket", String(part.head), ["A heads part does not go in the head gasket slot."]],
+    ];
+    for (const [slot, partId, errors] of cases) {
+      const r = await act(builder, id, {
+        intent: "set-part",
+        slot,
+        partId,
+        expectedRevision: String(rev),
+      });
+      expect([r.status, r.body.errors], `${slot} ← ${partId}`).toEqual([400, { [slot]: errors }]);
+    }
+    const row = await current(id);
+    expect(row.current_revision).toBe(rev);
+    expect((row.spec as any).slots.cylinder.partId).toBe(part.cyl);
+  });
+
+  it("needs the revision a change is based on: missing is refused, one from the future is stale", async () => {
+    const id = await newPackage();
+    const rev = await fill(id);
+    const change = { intent: "set-number", field: "powerHp", value: "120", unit: "hp" };
+    const missing = await act(builder, id, change);
+    expect([missing.status, missing.body.errors]).toEqual([
+      400,
+      { form: ["The bench did not say which revision it was based on; reload the page."] },
+    ]);
+    for (const bad of ["0", "-1", "1.5", "abc"]) {
+      const r = await act(builder, id, { ...change, expectedRevision: bad });
+      expect(r.status, bad).toBe(400);
+    }
+    const future = await act(builder, id, { ...change, expectedRevision: String(rev + 5) });
+    expect(future.status).toBe(409);
+    expect(future.body.current.revision).toBe(rev);
+    expect((await current(id)).current_revision).toBe(rev);
+  });
+
+  it("reads comma decimals and the Unicode minus; refuses empty measured values and units that do not fit", async () => {
+    const id = await newPackage();
+    let rev = await fill(id);
+    const ok = async (fields: Record<string, string>) => {
+      const r = await act(builder, id, { ...fields, expectedRevision: String(rev) });
+      expect(r.status, JSON.stringify(fields)).toBe(200);
+      rev = r.body.state.revision;
+      return r.body.state.spec;
+    };
+    const measured = { intent: "set-measured", slot: "head", field: "chamberCc", unit: "cc" };
+    expect((await ok({ ...measured, value: "88,4" })).slots.head.measured.chamberCc).toBe(88.4);
+    const dome = { intent: "set-measured", slot: "piston", field: "pistonDomeCc", unit: "cc" };
+    expect((await ok({ ...dome, value: "\u22124,5" })).slots.piston.measured.pistonDomeCc).toBe(
+      -4.5,
+    );
+    expect(
+      (
+        await ok({
+          intent: "set-number",
+          field: "deckClearanceMm",
+          value: "\u22120.25",
+          unit: "mm",
+        })
+      ).deckClearanceMm,
+    ).toBe(-0.25);
+    // an empty package number clears it
+    await ok({ intent: "set-number", field: "powerHp", value: "120", unit: "hp" });
+    expect(
+      (await ok({ intent: "set-number", field: "powerHp", value: "  ", unit: "hp" })).powerHp,
+    ).toBeNull();
+
+    const refused: [Record<string, string>, string, string][] = [
+      [{ ...measured, value: "" }, "head.chamberCc", "Enter a value, or use “Back to nominal”"],
+      [{ ...measured, value: "   " }, "head.chamberCc", "Enter a value, or use “Back to nominal”"],
+      [{ ...measured, value: "88,4,1" }, "head.chamberCc", "Enter a number, e.g. 4.125 or 104.8"],
+      [{ ...measured, value: "1e3" }, "head.chamberCc", "Enter a number, e.g. 4.125 or 104.8"],
+      [{ ...measured, value: "88.4", unit: "in" }, "head.chamberCc", "This value is in cc, not in"],
+      [
+        { intent: "set-measured", slot: "cylinder", field: "boreMm", value: "101.6", unit: "cc" },
+        "cylinder.boreMm",
+        "This value is in mm or in, not cc",
+      ],
+      [
+        { intent: "set-number", field: "revLimitRpm", value: "6000", unit: "mm" },
+        "revLimitRpm",
+        "This value is in rpm, not mm",
+      ],
+    ];
+    for (const [fields, key, message] of refused) {
+      const r = await act(builder, id, { ...fields, expectedRevision: String(rev) });
+      expect([r.status, r.body.errors], JSON.stringify(fields)).toEqual([
+        400,
+        { [key]: [message] },
+      ]);
+    }
+    expect((await current(id)).current_revision).toBe(rev);
+  });
+
+  it("a save several revisions behind is told every change since its base", async () => {
+    const id = await newPackage();
+    const base = await fill(id);
+    let rev = base;
+    for (const fields of [
+      { intent: "set-measured", slot: "head", field: "chamberCc", value: "88.4", unit: "cc" },
+      { intent: "set-part", slot: "gasket", partId: String(part.hgsmall) },
+      { intent: "set-number", field: "powerHp", value: "150", unit: "hp" },
+    ] as Record<string, string>[]) {
+      const r = await act(builder, id, {
+        ...fields,
+        expectedRevision: String(rev),
+      });
+      expect(r.status).toBe(200);
+      rev = r.body.state.revision;
+    }
+    const late = await act(builder, id, {
+      intent: "set-number",
+      field: "revLimitRpm",
+      value: "6200",
+      unit: "rpm",
+      expectedRevision: String(base),
+    });
+    expect(late.status).toBe(409);
+    expect(late.body.stale).toMatchObject({ currentRevision: base + 3, baseRevision: base });
+    // every change since the base, oldest first, as the bench shows them
+    expect(late.body.stale.changes).toEqual([
+      {
+        key: "head.chamberCc",
+        label: "Head: measured chamber",
+        before: "nominal",
+        after: "88.4 cc",
+      },
+      {
+        key: "gasket.part",
+        label: "Head gasket",
+        before: `T-${tag}-hg Test hg`,
+        after: `T-${tag}-hgsmall Test hgsmall`,
+      },
+      { key: "powerHp", label: "Power", before: "—", after: "150 hp" },
+    ]);
+    expect((await current(id)).current_revision).toBe(base + 3);
+  });
+});
+
+describe("the bench's rule cache", () => {
+  it("a rule added, edited or switched off applies to the very next save", async () => {
+    const id = await newPackage();
+    let rev = await fill(id);
+    const save = async (hp: string) => {
+      const r = await act(builder, id, {
+        intent: "set-number",
+        field: "powerHp",
+        value: hp,
+        unit: "hp",
+        expectedRevision: String(rev),
+      });
+      expect(r.status).toBe(200);
+      rev = r.body.state.revision;
+      return (r.body.state.findings as { ruleId: number; ruleVersion: number }[]).filter(
+        (f) => f.ruleId === ruleId,
+      );
+    };
+    let ruleId = 0;
+    expect(await save("100")).toEqual([]); // the bench's cache is warm
+    const fields = {
+      name: `Cache check ${tag}`,
+      kind: "caution" as const,
+      condition: `power_hp > 101 and has("stock-axle-${tag}") == false`,
+      message: "Cache check.",
+      upgrade_category: null,
+      suggested_part_id: null,
+      active: true,
+    };
+    const made = await createRule(db, fields, null);
+    if (!made.ok) throw new Error("rule did not save");
+    ruleId = made.rule.id;
+    expect(await save("102")).toMatchObject([{ ruleId, ruleVersion: 1 }]);
+    const edited = await updateRule(
+      db,
+      ruleId,
+      { ...fields, condition: "power_hp > 500" },
+      1,
+      null,
+      "raised",
+    );
+    expect(edited.ok).toBe(true);
+    expect(await save("103")).toEqual([]);
+    const back = await updateRule(
+      db,
+      ruleId,
+      { ...fields, condition: "power_hp > 101" },
+      2,
+      null,
+      "lowered",
+    );
+    expect(back.ok).toBe(true);
+    expect(await save("104")).toMatchObject([{ ruleId, ruleVersion: 3 }]);
+    const off = await updateRule(
+      db,
+      ruleId,
+      { ...fields, condition: "power_hp > 101", active: false },
+      3,
+      null,
+      "off",
+    );
+    expect(off.ok).toBe(true);
+    expect(await save("105")).toEqual([]);
   });
 });

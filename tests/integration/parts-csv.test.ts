@@ -1,12 +1,13 @@
 import { randomBytes } from "node:crypto";
 import Papa from "papaparse";
-import { beforeAll, describe, expect, it } from "vitest";
+import { sql } from "kysely";
+import { beforeAll, describe, expect, it, vi } from "vitest";
 import {
   ensureBuiltInCategories,
   getPartByNumber,
   getPartHistory,
 } from "~/lib/catalog/parts.server";
-import { neutralise } from "~/lib/catalog/csv.server";
+import { MAX_CSV_ROWS, neutralise, unneutralise } from "~/lib/catalog/csv.server";
 import { getDb } from "~/lib/db.server";
 import { action as importAction } from "~/routes/parts.import";
 import { loader as exportLoader } from "~/routes/parts.export[.]csv";
@@ -122,7 +123,155 @@ describe("CSV import", () => {
       .slice(0, 5 * 1024 * 1024);
     const r = await upload(users.owner, junk);
     expect(r.status).toBe(413);
-    expect(r.value.message).toMatch(/larger than 2 MB/);
+    expect(r.value.message).toBe("The file is larger than 2 MB. Split it into smaller files.");
+  });
+
+  it("refuses the same part number twice in one file, whatever the case, and writes nothing", async () => {
+    const pn = `TW-CSV-${uniq()}`;
+    const csv = [
+      HEAD,
+      `${pn},cylinders,Ironvale,First,100,1,,no,boreMm=101.6,`,
+      `${pn.toLowerCase()},cylinders,Ironvale,Second,100,1,,no,boreMm=101.6,`,
+    ].join("\n");
+    const r = await upload(users.owner, csv);
+    expect(r.value.check).toMatchObject({ valid: 1, invalid: 1 });
+    expect(r.value.check.rows[1]).toMatchObject({
+      line: 3,
+      errors: [`part_number: ${pn.toLowerCase()} appears again (line 2)`],
+    });
+    expect((await importText(users.owner, csv)).status).toBe(400);
+    expect(await getPartByNumber(db, pn)).toBeUndefined();
+  });
+
+  it("refuses a header with no rows, and more rows than the limit, with the reason", async () => {
+    const empty = await upload(users.owner, `${HEAD}\n\n`);
+    expect([empty.status, empty.value.message]).toEqual([
+      400,
+      "The file has a header but no rows.",
+    ]);
+    const pn = `TW-CSV-${uniq()}`;
+    const rows = Array.from(
+      { length: MAX_CSV_ROWS + 1 },
+      (_, i) => `${pn}-${i},cylinders,Ironvale,Pair,100,1,,no,boreMm=101.6,`,
+    );
+    const over = await upload(users.owner, [HEAD, ...rows].join("\n"));
+    expect([over.status, over.value.message]).toEqual([
+      400,
+      `The file has ${MAX_CSV_ROWS + 1} rows; the limit is ${MAX_CSV_ROWS}.`,
+    ]);
+    expect(await getPartByNumber(db, `${pn}-0`)).toBeUndefined();
+  });
+
+  it("names each malformed attribute", async () => {
+    const line = (attrs: string) =>
+      `TW-CSV-${uniq()},head_gaskets,Ironvale,Gasket,95,0.5,,no,"${attrs}",`;
+    const csv = [
+      HEAD,
+      line("boreMm;compressedThicknessMm=1.02"),
+      line("=105.4;compressedThicknessMm=1.02"),
+      line("boreMm=abc;compressedThicknessMm=1.02"),
+      line("boreMm=105.4=2;compressedThicknessMm=1.02"),
+      line("boreMm=105.4;bore_mm=99;compressedThicknessMm=1.02;"),
+      line(" boreMm = 105.4 ; compressed_thickness_mm=1.02 ;"),
+    ].join("\n");
+    const r = await upload(users.owner, csv);
+    const rows = r.value.check.rows as Array<{ line: number; errors: string[] }>;
+    expect(rows.map((x) => [x.line, x.errors])).toEqual([
+      [
+        2,
+        ['attributes: "boreMm" is not key=value', "attributes.boreMm: Enter the gasket bore in mm"],
+      ],
+      [
+        3,
+        ['attributes: "=105.4" is not key=value', "attributes.boreMm: Enter the gasket bore in mm"],
+      ],
+      [4, ["attributes.boreMm: Gasket bore must be a number"]],
+      [5, ["attributes.boreMm: Gasket bore must be a number"]],
+      // the same attribute twice (in either spelling) is not guessed at
+      [6, ['attributes: "bore_mm" is given twice']],
+      // spaces around names, values and separators are fine
+      [7, []],
+    ]);
+  });
+
+  it("reads a byte-order mark, header names in any case and a dollar sign in prices", async () => {
+    const pn = `TW-CSV-${uniq()}`;
+    const csv = `\uFEFF${HEAD.toUpperCase().replace("NAME,", "Name,")}\r\n${pn},cylinders,Ironvale,Pair,$1349.50,6.5,,no,boreMm=104.8,\r\n`;
+    const r = await importText(users.owner, csv);
+    expect(r.value.written).toBe(1);
+    expect(await getPartByNumber(db, pn)).toMatchObject({ price_cents: 134950, name: "Pair" });
+    // other currency signs and thousands separators are not guessed at
+    const other = await upload(
+      users.owner,
+      `${HEAD}\n${pn}-E,cylinders,Ironvale,Pair,€1349,1,,no,boreMm=104.8,\n${pn}-K,cylinders,Ironvale,Pair,"1,349.00",1,,no,boreMm=104.8,`,
+    );
+    expect((other.value.check.rows as Array<{ errors: string[] }>).map((x) => x.errors)).toEqual([
+      ["price: Price must be a number"],
+      ["price: Price must be a number"],
+    ]);
+  });
+
+  it("an import over an archived part updates it, and it stays archived", async () => {
+    const pn = `TW-CSV-${uniq()}`;
+    await importText(users.owner, `${HEAD}\n${pn},cylinders,Ironvale,Pair,100,1,,no,boreMm=101.6,`);
+    const part = (await getPartByNumber(db, pn))!;
+    await db
+      .updateTable("parts")
+      .set({ archived_at: new Date() })
+      .where("id", "=", part.id)
+      .execute();
+    const r = await upload(
+      users.owner,
+      `${HEAD}\n${pn},cylinders,Ironvale,Pair again,110,1,,no,boreMm=101.6,`,
+    );
+    expect(r.value.check.rows[0]).toMatchObject({ action: "update", errors: [] });
+    await importText(
+      users.owner,
+      `${HEAD}\n${pn},cylinders,Ironvale,Pair again,110,1,,no,boreMm=101.6,`,
+    );
+    const after = (await getPartByNumber(db, pn))!;
+    expect({
+      name: after.name,
+      price: after.price_cents,
+      archived: after.archived_at !== null,
+    }).toEqual({ name: "Pair again", price: 11000, archived: true });
+  });
+
+  it("a failure inside the write transaction leaves nothing behind", async () => {
+    const a = `TW-CSV-${uniq()}`;
+    const b = `TW-CSV-${uniq()}`;
+    const fails = `TW-CSV-${uniq()}`;
+    await importText(
+      users.owner,
+      `${HEAD}\n${b},cylinders,Ironvale,Before,100,1,,no,boreMm=101.6,`,
+    );
+    const fn = `tw_test_fail_${fails.replace(/-/g, "_").toLowerCase()}`;
+    // the third row passes every check but the database refuses it while writing
+    await sql
+      .raw(
+        `create function ${fn}() returns trigger language plpgsql as $$ begin
+           if new.part_number = '${fails}' then raise exception 'refused while writing'; end if;
+           return new; end $$;
+         create trigger ${fn} before insert on parts for each row execute function ${fn}();`,
+      )
+      .execute(db);
+    try {
+      const csv = [
+        HEAD,
+        `${a},cylinders,Ironvale,New,100,1,,no,boreMm=101.6,`,
+        `${b},cylinders,Ironvale,After,120,1,,no,boreMm=101.6,`,
+        `${fails},cylinders,Ironvale,Refused,100,1,,no,boreMm=101.6,`,
+      ].join("\n");
+      const spy = vi.spyOn(console, "error").mockImplementation(() => {});
+      await expect(importText(users.owner, csv)).rejects.toThrow(/refused while writing/);
+      spy.mockRestore();
+    } finally {
+      await sql.raw(`drop trigger ${fn} on parts; drop function ${fn}();`).execute(db);
+    }
+    expect(await getPartByNumber(db, a)).toBeUndefined();
+    const kept = (await getPartByNumber(db, b))!;
+    expect([kept.name, kept.version]).toEqual(["Before", 1]);
+    expect(await getPartHistory(db, kept.id)).toHaveLength(1);
   });
 
   it("only the owner imports", async () => {
@@ -159,6 +308,20 @@ describe("CSV export", () => {
     expect(row.price).toBe("12.00");
     for (const r of rows)
       for (const cell of Object.values(r)) expect(cell).not.toMatch(/^[=+\-@\t\r]/);
+
+    // this part's exported line imported again gives the same part back
+    const lines = text.replace(/^\uFEFF/, "").split("\r\n");
+    const mine = lines.find((l) => l.startsWith(`${pn},`))!;
+    const back = await importText(users.owner, `${lines[0]}\r\n${mine}\r\n`);
+    expect(back.value.written).toBe(1);
+    const again = (await getPartByNumber(db, pn))!;
+    expect([again.name, again.maker, again.notes, again.price_cents, again.category]).toEqual([
+      evil,
+      "@Ashgrove",
+      "+1 call",
+      1200,
+      "brake_lines",
+    ]);
   });
 
   it("leaves the price column out for apprentices", async () => {
@@ -173,7 +336,11 @@ describe("CSV export", () => {
   });
 
   it("neutralise() prefixes exactly the dangerous first characters", () => {
-    expect(["=1", "+1", "-1", "@x", "\tx", "\rx", "x=1", "1", ""].map(neutralise)).toEqual([
+    expect(
+      ["=1", "+1", "-1", "@x", "\tx", "\rx", "x=1", "1", "", "'=1", "''", "'78 style"].map(
+        neutralise,
+      ),
+    ).toEqual([
       "'=1",
       "'+1",
       "'-1",
@@ -183,6 +350,12 @@ describe("CSV export", () => {
       "x=1",
       "1",
       "",
+      "''=1",
+      "'''",
+      "'78 style",
     ]);
+    // and the import takes exactly that apostrophe off again
+    for (const cell of ["=1", "-1", "'=1", "''", "'78 style", "'", "x", ""])
+      expect(unneutralise(neutralise(cell))).toBe(cell);
   });
 });

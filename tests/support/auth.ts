@@ -9,6 +9,11 @@ import { env } from "~/lib/env.server";
 import { createSession } from "~/lib/auth/session.server";
 
 export const TEST_PASSWORD = "bench-test-pass-4417";
+/**
+ * bcrypt (cost 10, as `BCRYPT_COST`) of TEST_PASSWORD, made once: hashing in pure JS costs
+ * tens of milliseconds per user. auth-login.test.ts checks that it still matches.
+ */
+export const TEST_PASSWORD_HASH = "$2b$10$gajtEJA0KS3hr51a2Fvd7e1Zr38vZszvLhXgVrN.Cwd..3cqMxWO2";
 
 export type TestUser = User & { password: string };
 
@@ -27,7 +32,12 @@ export async function createTestUser(
       email: overrides.email ?? `${role.replace("_", "-")}-${tag}@staff.test`,
       name: overrides.name ?? `Test ${role.replace("_", " ")} ${tag}`,
       role,
-      password_hash: password === null ? null : await hashPassword(password),
+      password_hash:
+        password === null
+          ? null
+          : password === TEST_PASSWORD
+            ? TEST_PASSWORD_HASH
+            : await hashPassword(password),
       disabled_at: overrides.disabled_at ?? null,
     })
     .returningAll()

@@ -56,6 +56,16 @@ function checkBounds(field: keyof typeof BOUNDS, mm: number): string | null {
   return null;
 }
 
+/** The units a typed value of this field may come in (lengths in mm or inches). */
+function unitsOf(field: string): readonly string[] {
+  if (LENGTH_FIELDS.has(field)) return ["mm", "in"];
+  if (field.endsWith("Cc")) return ["cc"];
+  if (field === "intakeClosesAbdcDeg") return ["deg"];
+  if (field === "revLimitRpm") return ["rpm"];
+  if (field === "powerHp") return ["hp"];
+  return [];
+}
+
 const slotKey = z.string().refine((k) => k in SLOT_BY_KEY, "Unknown slot");
 const unit = z.enum(["mm", "in", "cc", "deg", "rpm", "hp"]).optional();
 
@@ -137,6 +147,12 @@ export function parseBenchIntent(form: FormData): ParsedIntent {
         expectedRevision,
       };
     }
+    if (a.unit !== undefined && !unitsOf(a.field).includes(a.unit))
+      return {
+        ok: false,
+        errors: { [key]: [`This value is in ${unitsOf(a.field).join(" or ")}, not ${a.unit}`] },
+        expectedRevision,
+      };
     const num = numberField().safeParse(a.value);
     if (!num.success)
       return {

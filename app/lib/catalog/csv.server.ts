@@ -11,9 +11,18 @@ import { CSV_COLUMNS, MAX_CSV_BYTES, MAX_CSV_ROWS } from "~/components/catalog/c
 
 const KNOWN = new Set<string>(CSV_COLUMNS.map((c) => c.name));
 
-/** Cells that a spreadsheet would run as a formula get a leading apostrophe. */
+/**
+ * Cells that a spreadsheet would run as a formula get a leading apostrophe; so does a cell
+ * that already starts with an apostrophe before such a character, so that the import
+ * (`unneutralise`) gives back exactly what was exported.
+ */
 export function neutralise(cell: string): string {
-  return /^[=+\-@\t\r]/.test(cell) ? `'${cell}` : cell;
+  return /^([=+\-@\t\r]|'[=+\-@\t\r'])/.test(cell) ? `'${cell}` : cell;
+}
+
+/** The import's reverse of `neutralise`: drops the apostrophe it added. */
+export function unneutralise(cell: string): string {
+  return /^'[=+\-@\t\r']/.test(cell) ? cell.slice(1) : cell;
 }
 
 export function partsToCsv(parts: Part[], showPrices: boolean): string {
@@ -73,6 +82,10 @@ function parseAttributes(
       );
       continue;
     }
+    if (Object.hasOwn(out, key)) {
+      errors.push(`attributes: "${rawKey.slice(0, 40)}" is given twice`);
+      continue;
+    }
     const raw = pair.slice(eq + 1).trim();
     const n = raw === "" ? Number.NaN : Number(raw);
     out[key] = Number.isFinite(n) ? n : (raw as unknown as number); // the schema names a non-number
@@ -98,6 +111,7 @@ export async function checkPartsCsv(db: Kysely<Database>, text: string): Promise
     header: true,
     skipEmptyLines: "greedy",
     transformHeader: (h) => h.trim().toLowerCase(),
+    transform: (v) => unneutralise(v),
   });
   const headers = parsed.meta.fields ?? [];
   const missing = CSV_COLUMNS.filter((c) => c.required && !headers.includes(c.name)).map(

@@ -572,6 +572,8 @@ function call(n: Record<string, any>, depth: number, acc: Acc): Checked {
     const arg = args[0] as any;
     if (arg.type !== "ConstantNode" || typeof arg.value !== "string" || arg.value.trim() === "")
       refuse(acc, `${name}( ) takes a word in quotes, e.g. ${doc.signature}`, node);
+    if ((arg.value as string).length > CONDITION_LIMITS.maxTextLength)
+      refuse(acc, `Text in quotes is limited to ${CONDITION_LIMITS.maxTextLength} characters`, arg);
     const word = (arg.value as string).slice(0, CONDITION_LIMITS.maxTextLength);
     if (name === "filled") {
       if (!SLOT_BY_NAME.has(word))
