@@ -1,6 +1,7 @@
 import type Stripe from "stripe";
 import type { Route } from "./+types/api.webhooks.payments";
 import { getDb } from "~/lib/db.server";
+import { env } from "~/lib/env.server";
 import { applyPaymentEvent } from "~/lib/payments/deposits.server";
 import { paymentsConfigured, stripe, webhookSecret } from "~/lib/payments/stripe.server";
 
@@ -17,6 +18,11 @@ export async function loader() {
 
 export async function action({ request }: Route.ActionArgs) {
   if (request.method !== "POST") return json(405, { error: "Send events with POST." });
+  // the service posts from its servers, with no Origin; a browser's post from a page is not
+  // an event, wherever it comes from
+  const origin = request.headers.get("Origin");
+  if (origin && origin !== new URL(env().APP_URL).origin)
+    return json(403, { error: "Events come from the payment service, not from a web page." });
   if (!paymentsConfigured()) return json(503, { error: "Payments are not set up on this server." });
   const signature = request.headers.get("stripe-signature");
   if (!signature) return json(400, { error: "The event has no signature." });

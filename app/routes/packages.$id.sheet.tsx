@@ -79,13 +79,13 @@ export default function SpecSheet({ loaderData }: Route.ComponentProps) {
         <>
           <h2 className="mt-4 text-lg font-semibold text-ink">Findings and cautions</h2>
           <ul className="mt-1 list-disc pl-5 text-sm">
-            {sheet.findings.map((f) => (
-              <li key={f.message}>
+            {sheet.findings.map((f, i) => (
+              <li key={`f${i}`}>
                 <strong>{f.kind}:</strong> {f.message}
               </li>
             ))}
-            {sheet.cautions.map((c) => (
-              <li key={c}>{c}</li>
+            {sheet.cautions.map((c, i) => (
+              <li key={`c${i}`}>{c}</li>
             ))}
           </ul>
         </>

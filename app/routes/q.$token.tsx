@@ -229,7 +229,7 @@ export default function CustomerQuote({ loaderData }: Route.ComponentProps) {
         </h2>
         <ul className="mt-2 list-disc space-y-1 pl-6 text-graphite">
           {s.changes.length ? (
-            s.changes.map((c) => <li key={c}>{c}</li>)
+            s.changes.map((c, i) => <li key={i}>{c}</li>)
           ) : (
             <li>The work listed below.</li>
           )}
@@ -243,7 +243,10 @@ export default function CustomerQuote({ loaderData }: Route.ComponentProps) {
                 : `${fmt1(s.displacementCi)} ci (${fmt1(s.displacementCc, 0)} cc)`
             }
           />
-          <Figure label="Static compression" value={s.staticCr === null ? "—" : `${fmt1(s.staticCr)}:1`} />
+          <Figure
+            label="Static compression"
+            value={s.staticCr === null ? "—" : `${fmt1(s.staticCr)}:1`}
+          />
           <Figure
             label="Dynamic compression"
             value={s.dynamicCr === null ? "—" : `${fmt1(s.dynamicCr, 2)}:1`}
@@ -258,7 +261,7 @@ export default function CustomerQuote({ loaderData }: Route.ComponentProps) {
           <div className="mt-4 rounded border border-amber bg-white px-4 py-3">
             <p className="font-semibold text-ink">What the builder watches on this engine</p>
             <ul className="mt-1 list-disc space-y-1 pl-6 text-graphite">
-              {[...s.cautions, ...s.findings.map((f) => f.message)].map((m) => (
+              {[...new Set([...s.cautions, ...s.findings.map((f) => f.message)])].map((m) => (
                 <li key={m}>{m}</li>
               ))}
             </ul>

@@ -266,7 +266,10 @@ export async function priceCurrent(db: Db, packageId: number): Promise<PricedQuo
       powerHp: header.power_hp === null ? null : Number(header.power_hp),
       powerBasis: header.power_basis,
       cautions: bench.computation.cautions.map((c) => c.message),
-      findings: bench.findings.map((f) => ({ kind: f.kind, message: f.message })),
+      // a rule that could not be checked is the builder's business, not the customer's
+      findings: bench.findings
+        .filter((f) => !f.error)
+        .map((f) => ({ kind: f.kind, message: f.message })),
       changes: built.lines
         .filter((l) => l.kind === "part")
         .map((l) => `${l.source}: ${l.description}`),
@@ -340,7 +343,7 @@ function toVersionView(r: VersionRow): QuoteVersionView {
     packageId: r.package_id,
     number: r.number,
     packageRevision: r.package_revision,
-    lines: r.lines as BuiltLine[],
+    lines: r.lines as PricedQuoteLine[],
     totals,
     terms: (r.terms as { terms: QuoteTerms }).terms,
     summary: r.summary as QuoteSummary,

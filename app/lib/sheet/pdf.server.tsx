@@ -96,16 +96,16 @@ export async function renderSheetPdf(model: SheetModel, quote?: QuoteForPdf): Pr
           <>
             <Text style={s.h2}>Findings and cautions</Text>
             {[...model.findings.map((f) => `${f.kind}: ${f.message}`), ...model.cautions].map(
-              (m) => (
-                <Text key={m}>• {m}</Text>
+              (m, i) => (
+                <Text key={i}>• {m}</Text>
               ),
             )}
           </>
         ) : null}
         <View style={s.box} wrap={false}>
           <Text style={s.strong}>Safety</Text>
-          {model.safety.map((line) => (
-            <Text key={line}>• {line}</Text>
+          {model.safety.map((line, i) => (
+            <Text key={i}>• {line}</Text>
           ))}
         </View>
       </Page>
