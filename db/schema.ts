@@ -7,6 +7,7 @@ import type { PackageTables } from "./schema/packages";
 import type { SettingsTables } from "./schema/settings";
 import type { RequestTables } from "./schema/requests";
 import type { DynoTables } from "./schema/dyno";
+import type { QuoteTables } from "./schema/quotes";
 
 export interface Database
   extends
@@ -16,7 +17,8 @@ export interface Database
     PackageTables,
     SettingsTables,
     RequestTables,
-    DynoTables {}
+    DynoTables,
+    QuoteTables {}
 
 export type * from "./schema/core";
 export type * from "./schema/auth";
@@ -25,3 +27,4 @@ export type * from "./schema/packages";
 export type * from "./schema/settings";
 export type * from "./schema/requests";
 export type * from "./schema/dyno";
+export type * from "./schema/quotes";

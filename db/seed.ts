@@ -12,6 +12,7 @@ import { seedCatalog } from "./seed/catalog";
 import { seedPackages } from "./seed/packages";
 import { seedRequests } from "./seed/requests";
 import { seedDyno } from "./seed/dyno";
+import { seedQuotes } from "./seed/quotes";
 
 export async function seed(db: Kysely<Database>) {
   await db.transaction().execute(async (trx) => {
@@ -20,6 +21,7 @@ export async function seed(db: Kysely<Database>) {
     await seedCatalog(trx);
     await seedPackages(trx);
     await seedRequests(trx);
+    await seedQuotes(trx);
   });
   // objects cannot join the transaction: stored after it, each with its rows
   await seedDyno(db);

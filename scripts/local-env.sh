@@ -34,6 +34,22 @@ if [ -z "${SMTP_URL:-}" ]; then
   export LOCAL_MAIL_API_URL="${LOCAL_MAIL_API_URL:-http://127.0.0.1:$TW_MAIL_API_PORT}"
 fi
 
+# The payment service: the local fake (scripts/services/payment-fake.ts) unless
+# STRIPE_SECRET_KEY names a real account (then STRIPE_API_URL stays unset).
+export TW_PAY_PORT="${TW_PAY_PORT:-2529}"
+if [ -z "${STRIPE_SECRET_KEY:-}" ]; then
+  export STRIPE_SECRET_KEY="sk_test_local"
+  export STRIPE_API_URL="${STRIPE_API_URL:-http://127.0.0.1:$TW_PAY_PORT}"
+  if [ -z "${STRIPE_WEBHOOK_SECRET:-}" ]; then
+    if [ ! -s "$TW_DATA_DIR/payment-webhook-secret" ]; then
+      (umask 077; node -e 'process.stdout.write("whsec_"+require("crypto").randomBytes(24).toString("hex"))' > "$TW_DATA_DIR/payment-webhook-secret")
+    fi
+    STRIPE_WEBHOOK_SECRET="$(cat "$TW_DATA_DIR/payment-webhook-secret")"
+    export STRIPE_WEBHOOK_SECRET
+  fi
+  export TW_PAY_WEBHOOK_URL="${TW_PAY_WEBHOOK_URL:-http://127.0.0.1:${PORT:-3000}/api/webhooks/payments}"
+fi
+
 ensure_node_modules() {
   if [ ! -d "$ROOT/node_modules" ] || [ "$ROOT/package-lock.json" -nt "$ROOT/node_modules/.package-lock.json" ]; then
     echo "setup: installing npm packages (npm ci)…"

@@ -4,6 +4,7 @@ import { writeFileSync } from "node:fs";
 import path from "node:path";
 import { startMailCatcher } from "./services/mail-catcher";
 import { startS3Fake } from "./services/s3-fake";
+import { startPaymentFake } from "./services/payment-fake";
 
 type Started = { name: string; url: string; stop: () => Promise<void> };
 type Starter = () => Promise<Started>;
@@ -24,6 +25,14 @@ const starters: Starter[] = [
       bucket: process.env.S3_BUCKET ?? "torquewright",
     });
     return { name: `object storage (bucket ${s3.bucket})`, url: s3.url, stop: s3.stop };
+  },
+  async () => {
+    const pay = await startPaymentFake({
+      port: Number(process.env.TW_PAY_PORT ?? 2529),
+      webhookSecret: process.env.STRIPE_WEBHOOK_SECRET ?? "whsec_local",
+      webhookUrl: process.env.TW_PAY_WEBHOOK_URL || undefined,
+    });
+    return { name: "payments (test checkout)", url: pay.url, stop: pay.stop };
   },
 ];
 

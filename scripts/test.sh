@@ -7,6 +7,8 @@ set -uo pipefail
 # The tests run their own local services on their own ports, beside a running demo.
 export TW_SMTP_PORT="${TW_TEST_SMTP_PORT:-2626}" TW_MAIL_API_PORT="${TW_TEST_MAIL_API_PORT:-2627}"
 export TW_S3_PORT="${TW_TEST_S3_PORT:-2628}"
+export TW_PAY_PORT="${TW_TEST_PAY_PORT:-2629}"
+export TW_PAY_WEBHOOK_URL="http://127.0.0.1:${E2E_PORT:-3100}/api/webhooks/payments"
 source "$(dirname "${BASH_SOURCE[0]}")/local-env.sh"
 # the test object store starts empty each run (its objects belong to the dropped test databases)
 export TW_S3_DIR="$TW_DATA_DIR/s3-test"; rm -rf "$TW_S3_DIR"

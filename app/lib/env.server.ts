@@ -21,6 +21,11 @@ const EnvSchema = z.object({
   // Set only when the local mail catcher runs; turns on /dev/outbox.
   LOCAL_MAIL_API_URL: z.string().url().optional(),
   MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().positive().default(15),
+  // The payment service. Locally scripts/local-env.sh points these at the fake in
+  // scripts/services/payment-fake.ts; unset STRIPE_API_URL means the hosted service.
+  STRIPE_SECRET_KEY: z.string().optional(),
+  STRIPE_WEBHOOK_SECRET: z.string().optional(),
+  STRIPE_API_URL: z.string().url().optional(),
   // "0" keeps this process from working the job queue (it still enqueues).
   JOBS_WORKER: z.enum(["0", "1"]).default("1"),
 });

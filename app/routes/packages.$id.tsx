@@ -82,6 +82,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     nextStep,
     photos,
     canPhotos: can(user.role, "dyno:log"),
+    canQuote: can(user.role, "prices:read"),
   };
 }
 
@@ -182,6 +183,20 @@ export default function PackageOverview({ loaderData, actionData }: Route.Compon
             Keep-check
           </Link>
         ) : null}
+        {header.bikeId && loaderData.canQuote ? (
+          <Link
+            to={`/packages/${header.id}/quote`}
+            className="rounded border border-teal-dark bg-white px-3 py-1.5 font-semibold text-teal-text hover:bg-steel-50"
+          >
+            Quote
+          </Link>
+        ) : null}
+        <Link
+          to={`/packages/${header.id}/sheet`}
+          className="rounded border border-teal-dark bg-white px-3 py-1.5 font-semibold text-teal-text hover:bg-steel-50"
+        >
+          Spec sheet
+        </Link>
         <Link
           to={`/packages/${header.id}/dyno`}
           className="rounded border border-teal-dark bg-white px-3 py-1.5 font-semibold text-teal-text hover:bg-steel-50"

@@ -119,6 +119,8 @@ export interface PackageStatusChangeTable {
   to_status: PackageStatus;
   changed_by: number | null;
   changed_at: Timestamp;
+  /** why, when it is not the usual next step (a cancel) or the work moved it ("Quote sent") */
+  reason: Generated<string>;
 }
 
 export interface UserPreferenceTable {

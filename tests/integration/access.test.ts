@@ -36,6 +36,8 @@ const { runBenchAction } = await import("~/lib/bench/action.server");
 const { createRule } = await import("~/lib/fit-rules/rules.server");
 const { createToken } = await import("~/lib/auth/tokens.server");
 const { ensureBuiltInCategories } = await import("~/lib/catalog/parts.server");
+const { saveDraft, sendQuote } = await import("~/lib/quotes/store.server");
+const { ensureShop } = await import("../support/shop");
 
 type Outcome = "ok" | "login" | "redirect" | "invalid" | 401 | 403 | 404 | 405;
 type Who = "signedOut" | Role;
@@ -138,6 +140,56 @@ async function newPackage(isTemplate = false) {
     },
     null,
   );
+}
+/** A package whose customer has an e-mail, with one machine-work line on its quote draft. */
+async function quotablePackage() {
+  const c = await getDb()
+    .insertInto("customers")
+    .values({ name: `Access ${tag()}`, email: `rider-${tag()}@mail.test`, notes: "" })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  const bike = await getDb()
+    .insertInto("bikes")
+    .values({ customer_id: c.id, year: 2020, model: "Access twin", notes: "" })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  const id = await createPackage(
+    getDb(),
+    { name: `Access ${tag()}`, bikeId: bike.id, isTemplate: false, builderId: null },
+    null,
+  );
+  const owner = await getDb()
+    .selectFrom("users")
+    .select("id")
+    .orderBy("id")
+    .executeTakeFirstOrThrow();
+  await saveDraft(
+    getDb(),
+    id,
+    {
+      extraLines: [
+        {
+          kind: "machine",
+          description: "Bore and hone",
+          quantityHundredths: 100,
+          unitCents: 18500,
+          taxable: false,
+        },
+      ],
+      discount: { kind: "none" },
+      deposit: null,
+      note: "",
+    },
+    owner.id,
+  );
+  return { id, owner: owner.id };
+}
+/** A package with a quote sent; the customer's link token. */
+async function quotedPackage() {
+  const { id, owner } = await quotablePackage();
+  const sent = await sendQuote(getDb(), id, owner);
+  if (!sent.ok) throw new Error(sent.message);
+  return { id, token: sent.link.split("/q/")[1]! };
 }
 /** A package with a second revision, and its cylinder slot filled, by the owner. */
 async function benchedPackage() {
@@ -580,6 +632,158 @@ export const ROWS: Row[] = [
     prepare: async () => ({ json: { boreMm: 101.6, strokeMm: 114.3, cylinders: 2 } }),
     expect: { ...staffOnly("owner", "builder", "service_writer", "apprentice"), signedOut: 401 },
   },
+  // quotes: staff with customers price and send; the owner alone refunds
+  {
+    path: "/packages/{id}/quote",
+    prepare: async () => ({ vars: { id: (await quotablePackage()).id } }),
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
+    path: "/packages/{id}/quote",
+    method: "POST",
+    intent: "add-line",
+    prepare: async () => ({
+      vars: { id: (await quotablePackage()).id },
+      body: {
+        intent: "add-line",
+        kind: "machine",
+        description: "Balance",
+        quantity: "1",
+        unit: "240",
+      },
+    }),
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
+    path: "/packages/{id}/quote",
+    method: "POST",
+    intent: "remove-line",
+    prepare: async () => ({
+      vars: { id: (await quotablePackage()).id },
+      body: { intent: "remove-line", index: "0" },
+    }),
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
+    path: "/packages/{id}/quote",
+    method: "POST",
+    intent: "terms",
+    prepare: async () => ({
+      vars: { id: (await quotablePackage()).id },
+      body: { intent: "terms", discountKind: "percent", discountValue: "5", depositKind: "shop" },
+    }),
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
+    path: "/packages/{id}/quote",
+    method: "POST",
+    intent: "send",
+    prepare: async () => ({ vars: { id: (await quotablePackage()).id }, body: { intent: "send" } }),
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
+    // a refund needs a paid deposit (tests/integration/quotes.test.ts pays one): here the
+    // owner is refused a payment that does not exist, the others the action itself
+    path: "/packages/{id}/quote",
+    method: "POST",
+    intent: "refund",
+    prepare: async () => ({
+      vars: { id: (await quotablePackage()).id },
+      body: { intent: "refund", payment: "0" },
+    }),
+    expect: { ...staffOnly("owner"), owner: "invalid" },
+  },
+  {
+    path: "/packages/{id}/quote.pdf",
+    prepare: async () => ({ vars: { id: (await quotedPackage()).id } }),
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
+    path: "/packages/{id}/sheet",
+    prepare: async () => ({ vars: { id: await newPackage() } }),
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  {
+    path: "/packages/{id}/sheet.pdf",
+    prepare: async () => ({ vars: { id: await newPackage() } }),
+    expect: staffOnly("owner", "builder", "service_writer"),
+  },
+  // the customer's quote link: the signed token is the permission, for anyone who has it
+  {
+    path: "/q/{token}",
+    prepare: async () => ({ vars: { token: (await quotedPackage()).token } }),
+    expect: all("ok"),
+  },
+  { path: "/q/not-a-token", expect: all(404) },
+  {
+    path: "/q/{token}",
+    method: "POST",
+    intent: "changes",
+    prepare: async () => ({
+      vars: { token: (await quotedPackage()).token },
+      body: { intent: "changes", message: "Could the bars wait until spring?" },
+    }),
+    expect: all("ok"),
+  },
+  {
+    path: "/q/{token}",
+    method: "POST",
+    intent: "approve",
+    prepare: async () => ({
+      vars: { token: (await quotedPackage()).token },
+      body: { intent: "approve" },
+    }),
+    expect: all("redirect"),
+  },
+  {
+    path: "/q/{token}",
+    method: "POST",
+    intent: "pay",
+    prepare: async () => ({
+      vars: { token: (await quotedPackage()).token },
+      body: { intent: "pay" },
+    }),
+    expect: all("redirect"),
+  },
+  // the payment service's events: the signature is the permission, not a session
+  { path: "/api/webhooks/payments", expect: all(405) },
+  {
+    path: "/api/webhooks/payments",
+    method: "POST",
+    intent: "event",
+    body: { type: "checkout.session.completed" },
+    expect: all("invalid"),
+  },
+  // the shop's labour jobs: the owner's
+  { path: "/settings/jobs", expect: staffOnly("owner") },
+  {
+    path: "/settings/jobs",
+    method: "POST",
+    intent: "save",
+    prepare: async () => ({
+      body: { intent: "save", name: `Access job ${tag()}`, hours: "2.5", slots: "cam" },
+    }),
+    expect: staffOnly("owner"),
+  },
+  {
+    path: "/settings/jobs",
+    method: "POST",
+    intent: "retire",
+    prepare: async () => {
+      const j = await getDb()
+        .insertInto("labour_jobs")
+        .values({
+          name: `Access retire ${tag()}`,
+          hours_hundredths: 100,
+          slots: ["cam"],
+          updated_by: null,
+        })
+        .returning("id")
+        .executeTakeFirstOrThrow();
+      return { body: { intent: "retire", id: String(j.id) } };
+    },
+    expect: staffOnly("owner"),
+  },
   { path: "/parts", expect: staffOnly("owner", "builder", "service_writer", "apprentice") },
   {
     path: "/parts",
@@ -915,6 +1119,7 @@ async function outcome(request: Request) {
 const users = {} as Record<Role, TestUser>;
 beforeAll(async () => {
   await ensureBuiltInCategories(getDb());
+  await ensureShop(getDb());
   for (const role of ["owner", "builder", "service_writer", "apprentice"] as const)
     users[role] = await createTestUser(getDb(), role);
 });
@@ -997,6 +1202,9 @@ describe("access table", () => {
     "routes/parts.new.tsx": ["app/routes/parts.new.tsx", "app/components/catalog/part-form.tsx"],
     "routes/rules.new.tsx": ["app/components/fit-rules"],
     "routes/rules.$id.tsx": ["app/components/fit-rules"],
+    "routes/packages.$id.quote.tsx": ["app/routes/packages.$id.quote.tsx"],
+    "routes/q.$token.tsx": ["app/routes/q.$token.tsx"],
+    "routes/settings.jobs.tsx": ["app/routes/settings.jobs.tsx"],
   };
   const intentsIn = (path: string): string[] => {
     const files = statSync(path).isDirectory()

@@ -5,6 +5,7 @@ import { NavLink } from "react-router";
 export const SETTINGS_SECTIONS = [
   { to: "/settings", label: "Shop details" },
   { to: "/settings/limits", label: "Caution limits" },
+  { to: "/settings/jobs", label: "Labour jobs" },
 ] as const;
 
 export function SettingsNav() {

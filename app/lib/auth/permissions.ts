@@ -51,6 +51,8 @@ export const PERMISSIONS = {
   "prices:read": STAFF_WITH_CUSTOMERS,
   "quotes:send": STAFF_WITH_CUSTOMERS,
   "deposits:take": ["owner", "service_writer"],
+  "deposits:refund": ["owner"],
+  "jobs:edit": ["owner"],
   "schedule:edit": ["owner", "service_writer"],
 } as const satisfies Record<string, readonly Role[]>;
 
