@@ -28,11 +28,8 @@ export default defineConfig({
         extends: true,
         test: {
           name: "db",
-          include: [
-            "db/**/*.test.ts",
-            "tests/integration/**/*.test.ts",
-            "tests/faults/**/*.test.ts",
-          ],
+          // tests/faults run on their own after the build (vitest.faults.config.ts)
+          include: ["db/**/*.test.ts", "tests/integration/**/*.test.ts"],
           globalSetup: ["tests/support/global-setup.ts"],
         },
       },

@@ -11,8 +11,8 @@
 //   "ok"        rendered or done: data or a 2xx
 //   "redirect"  a redirect elsewhere (an action done, or a page moved on)
 //   "login"     a redirect to /login (signed out)
-//   "invalid"   a 4xx form answer (400, 401 from the sign-in form, 409, 410): the input was
-//               refused, only for rows that send a bad body on purpose
+//   "invalid"   a 4xx form answer (400, 401 from the sign-in form, 409, 410, 413, 415, 422):
+//               the input was refused, only for rows that send a bad body on purpose
 //   401 / 403 / 404   a JSON route signed out / refused / nothing there
 //
 // Completeness (the last tests): every route module's loader has a GET row, its action a
@@ -38,6 +38,7 @@ const { createToken } = await import("~/lib/auth/tokens.server");
 const { ensureBuiltInCategories } = await import("~/lib/catalog/parts.server");
 const { saveDraft, sendQuote } = await import("~/lib/quotes/store.server");
 const { ensureShop } = await import("../support/shop");
+const { getShopLimits } = await import("~/lib/settings/limits.server");
 
 type Outcome = "ok" | "login" | "redirect" | "invalid" | 401 | 403 | 404 | 405;
 type Who = "signedOut" | Role;
@@ -383,6 +384,18 @@ export const ROWS: Row[] = [
     path: "/settings/limits",
     method: "POST",
     body: { meanPistonSpeedMaxMs: "" },
+    expect: { ...staffOnly("owner"), owner: "invalid" },
+  },
+  {
+    // the whole form with the shop's limits as they stand: a valid save that changes nothing
+    path: "/settings/limits",
+    method: "POST",
+    intent: "save",
+    prepare: async () => ({
+      body: Object.fromEntries(
+        Object.entries(await getShopLimits(getDb())).map(([k, v]) => [k, String(v)]),
+      ),
+    }),
     expect: staffOnly("owner"),
   },
   { path: "/settings", expect: staffOnly("owner") },
@@ -459,7 +472,7 @@ export const ROWS: Row[] = [
     intent: "restore",
     prepare: async () => ({
       vars: { id: await benchedPackage() },
-      body: { intent: "restore", revision: "1", expectedRevision: "2" },
+      body: { intent: "restore", target: "r1", expectedVersion: "2" },
     }),
     expect: staffOnly("owner", "builder"),
   },
@@ -531,6 +544,16 @@ export const ROWS: Row[] = [
     method: "POST",
     body: { intent: "clear-slot", slot: "cam", expectedRevision: "1" },
     expect: { ...staffOnly("owner", "builder"), owner: 404, builder: 404 },
+  },
+  {
+    path: "/packages/{id}/bench",
+    method: "POST",
+    intent: "close-revision",
+    prepare: async () => ({
+      vars: { id: await benchedPackage() },
+      body: { intent: "close-revision", note: "Checked", expectedVersion: "2" },
+    }),
+    expect: staffOnly("owner", "builder"),
   },
   {
     path: "/packages/999999/bench",
@@ -1102,7 +1125,7 @@ function classify(value: unknown): Outcome | `status ${number}` {
     value.headers.get("Content-Type")?.includes("json")
   )
     return 401; // a JSON route, signed out
-  if ([400, 401, 409, 410, 413, 422].includes(status)) return "invalid";
+  if ([400, 401, 409, 410, 413, 415, 422].includes(status)) return "invalid";
   return `status ${status}`;
 }
 

@@ -546,11 +546,11 @@ describe("bench input at the edges", () => {
       expect([r.status, r.body.errors], `${slot} ← ${partId}`).toEqual([400, { [slot]: errors }]);
     }
     const row = await current(id);
-    expect(row.current_revision).toBe(rev);
+    expect(row.version).toBe(rev);
     expect((row.spec as any).slots.cylinder.partId).toBe(part.cyl);
   });
 
-  it("needs the revision a change is based on: missing is refused, one from the future is stale", async () => {
+  it("needs the version a change is based on: missing is refused, one from the future is stale", async () => {
     const id = await newPackage();
     const rev = await fill(id);
     const change = { intent: "set-number", field: "powerHp", value: "120", unit: "hp" };
@@ -565,8 +565,8 @@ describe("bench input at the edges", () => {
     }
     const future = await act(builder, id, { ...change, expectedRevision: String(rev + 5) });
     expect(future.status).toBe(409);
-    expect(future.body.current.revision).toBe(rev);
-    expect((await current(id)).current_revision).toBe(rev);
+    expect(future.body.current.version).toBe(rev);
+    expect((await current(id)).version).toBe(rev);
   });
 
   it("reads comma decimals and the Unicode minus; refuses empty measured values and units that do not fit", async () => {
@@ -575,7 +575,7 @@ describe("bench input at the edges", () => {
     const ok = async (fields: Record<string, string>) => {
       const r = await act(builder, id, { ...fields, expectedRevision: String(rev) });
       expect(r.status, JSON.stringify(fields)).toBe(200);
-      rev = r.body.state.revision;
+      rev = r.body.state.version;
       return r.body.state.spec;
     };
     const measured = { intent: "set-measured", slot: "head", field: "chamberCc", unit: "cc" };
@@ -594,15 +594,20 @@ describe("bench input at the edges", () => {
         })
       ).deckClearanceMm,
     ).toBe(-0.25);
-    // an empty package number clears it
+    // an empty package number clears it (a box of only spaces is refused, below)
     await ok({ intent: "set-number", field: "powerHp", value: "120", unit: "hp" });
     expect(
-      (await ok({ intent: "set-number", field: "powerHp", value: "  ", unit: "hp" })).powerHp,
+      (await ok({ intent: "set-number", field: "powerHp", value: "", unit: "hp" })).powerHp,
     ).toBeNull();
 
     const refused: [Record<string, string>, string, string][] = [
       [{ ...measured, value: "" }, "head.chamberCc", "Enter a value, or use “Back to nominal”"],
       [{ ...measured, value: "   " }, "head.chamberCc", "Enter a value, or use “Back to nominal”"],
+      [
+        { intent: "set-number", field: "powerHp", value: "  ", unit: "hp" },
+        "powerHp",
+        "Only spaces: enter a number, or empty the box completely to clear the value.",
+      ],
       [{ ...measured, value: "88,4,1" }, "head.chamberCc", "Enter a number, e.g. 4.125 or 104.8"],
       [{ ...measured, value: "1e3" }, "head.chamberCc", "Enter a number, e.g. 4.125 or 104.8"],
       [{ ...measured, value: "88.4", unit: "in" }, "head.chamberCc", "This value is in cc, not in"],
@@ -624,10 +629,10 @@ describe("bench input at the edges", () => {
         { [key]: [message] },
       ]);
     }
-    expect((await current(id)).current_revision).toBe(rev);
+    expect((await current(id)).version).toBe(rev);
   });
 
-  it("a save several revisions behind is told every change since its base", async () => {
+  it("a save several edits behind is told every change since its base", async () => {
     const id = await newPackage();
     const base = await fill(id);
     let rev = base;
@@ -641,7 +646,7 @@ describe("bench input at the edges", () => {
         expectedRevision: String(rev),
       });
       expect(r.status).toBe(200);
-      rev = r.body.state.revision;
+      rev = r.body.state.version;
     }
     const late = await act(builder, id, {
       intent: "set-number",
@@ -651,7 +656,7 @@ describe("bench input at the edges", () => {
       expectedRevision: String(base),
     });
     expect(late.status).toBe(409);
-    expect(late.body.stale).toMatchObject({ currentRevision: base + 3, baseRevision: base });
+    expect(late.body.stale).toMatchObject({ currentVersion: base + 3, baseVersion: base });
     // every change since the base, oldest first, as the bench shows them
     expect(late.body.stale.changes).toEqual([
       {
@@ -668,7 +673,7 @@ describe("bench input at the edges", () => {
       },
       { key: "powerHp", label: "Power", before: "—", after: "150 hp" },
     ]);
-    expect((await current(id)).current_revision).toBe(base + 3);
+    expect((await current(id)).version).toBe(base + 3);
   });
 });
 
@@ -685,7 +690,7 @@ describe("the bench's rule cache", () => {
         expectedRevision: String(rev),
       });
       expect(r.status).toBe(200);
-      rev = r.body.state.revision;
+      rev = r.body.state.version;
       return (r.body.state.findings as { ruleId: number; ruleVersion: number }[]).filter(
         (f) => f.ruleId === ruleId,
       );

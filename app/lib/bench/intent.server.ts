@@ -193,7 +193,9 @@ export function parseBenchIntent(form: FormData): ParsedIntent {
         expectedRevision,
       };
     }
-    if (a.value !== "" && a.value.trim() === "")
+    // a package number empties by an empty box; a measured value has no empty state (it
+    // goes back to nominal by its own command), so its spaces get the measured message below
+    if (a.intent === "set-number" && a.value !== "" && a.value.trim() === "")
       return { ok: false, errors: { [key]: [ONLY_SPACES] }, expectedRevision };
     if (a.intent === "set-number" && a.value === "") {
       return {
