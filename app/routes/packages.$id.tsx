@@ -37,8 +37,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const asked = q.has("a") || q.has("b");
   const a = parsePick(q.get("a"));
   const b = parsePick(q.get("b"));
-  if ((q.get("a") && !a) || (q.get("b") && !b))
-    throw data("Pick a revision (r3) or an edit (e17) to compare.", { status: 400 });
+  const badPick = q.get("a") && !a ? "a" : q.get("b") && !b ? "b" : null;
+  if (badPick)
+    throw data(`“${badPick}” names a revision (r3) or an edit (e17) to compare.`, {
+      status: 400,
+    });
   const [revisions, statuses, compare, state, units, photos] = await Promise.all([
     listRevisions(db, id),
     listStatusChanges(db, id),

@@ -399,7 +399,30 @@ export const ROWS: Row[] = [
     expect: staffOnly("owner"),
   },
   { path: "/settings", expect: staffOnly("owner") },
-  { path: "/settings", method: "POST", body: { name: "" }, expect: staffOnly("owner") },
+  {
+    // a real save of the test shop's own values: nothing another test reads changes
+    path: "/settings",
+    method: "POST",
+    intent: "save",
+    body: {
+      name: "Test shop",
+      address: "",
+      phone: "555-0100",
+      email: "shop@shop.test",
+      labourRate: "125.00",
+      taxRate: "8.25",
+      depositKind: "percent",
+      depositValue: "25",
+      timeZone: "America/Chicago",
+    },
+    expect: staffOnly("owner"),
+  },
+  {
+    path: "/settings",
+    method: "POST",
+    body: { name: "" },
+    expect: { ...staffOnly("owner"), owner: "invalid" },
+  },
   { path: "/dev/outbox", expect: staffOnly("owner") },
   { path: "/dev/outbox/999999", expect: { ...staffOnly("owner"), owner: 404 } },
   { path: "/packages", expect: staffOnly("owner", "builder", "service_writer") },
@@ -977,8 +1000,19 @@ export const ROWS: Row[] = [
   {
     path: "/customers",
     method: "POST",
+    intent: "create",
+    prepare: async () => ({ body: { name: `Access rider ${tag()}`, email: "", phone: "" } }),
+    expect: staffDone("owner", "service_writer"),
+  },
+  {
+    path: "/customers",
+    method: "POST",
     body: { name: "" },
-    expect: staffOnly("owner", "service_writer"),
+    expect: {
+      ...staffOnly("owner", "service_writer"),
+      owner: "invalid",
+      service_writer: "invalid",
+    },
   },
   {
     path: "/customers/999999",
@@ -1040,8 +1074,28 @@ export const ROWS: Row[] = [
   {
     path: "/engine-families/new",
     method: "POST",
+    intent: "save",
+    prepare: async () => ({
+      body: {
+        intent: "save",
+        name: `Access twin ${tag()}`,
+        yearFrom: "2017",
+        yearTo: "",
+        boreMm: "98.4",
+        strokeMm: "111.1",
+        displacementCc: "1690",
+        deckHeightMm: "",
+        revLimitRpm: "",
+        notes: "",
+      },
+    }),
+    expect: staffDone("owner"),
+  },
+  {
+    path: "/engine-families/new",
+    method: "POST",
     body: { intent: "save", name: "" },
-    expect: staffOnly("owner"),
+    expect: { ...staffOnly("owner"), owner: "invalid" },
   },
   {
     path: "/engine-families/999999",
