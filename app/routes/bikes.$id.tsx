@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, useNavigation } from "react-router";
@@ -59,12 +60,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
+  const form = await readForm(request);
   const user = await requirePermission(request, "customers:edit");
   const id = requireIdParam(params);
   const db = getDb();
   const bike = await db.selectFrom("bikes").select("id").where("id", "=", id).executeTakeFirst();
   if (!bike) throw data("Not found", { status: 404 });
-  const form = await request.formData();
   const intent = String(form.get("intent") ?? "");
   const rowId = parseId(form.get("partRowId"));
   const key = intent === "edit-part" ? `edit-part-${rowId}` : intent;
@@ -107,7 +108,10 @@ export async function action({ request, params }: Route.ActionArgs) {
       return data({ key, result: null, saved: undefined }, { status: 404 });
     return { key, result: null, saved: "Part removed; it stays in the bike's history." };
   }
-  return data({ key: null, result: null }, { status: 400 });
+  return data(
+    { key: null, result: null, message: "That action was not understood." },
+    { status: 400 },
+  );
 }
 
 export default function BikePage({ loaderData, actionData }: Route.ComponentProps) {

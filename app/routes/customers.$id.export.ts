@@ -1,3 +1,4 @@
+import { readQuery } from "~/lib/http/text";
 import { data } from "react-router";
 import type { Route } from "./+types/customers.$id.export";
 import { requirePermission } from "~/lib/auth/auth.server";
@@ -11,7 +12,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const id = requireIdParam(params);
   const x = await exportCustomer(getDb(), id);
   if (!x) throw data("Not found", { status: 404 });
-  const csv = new URL(request.url).searchParams.get("format") === "csv";
+  const csv = readQuery(request).get("format") === "csv";
   const headers = {
     "Content-Type": csv ? "text/csv; charset=utf-8" : "application/json; charset=utf-8",
     "Content-Disposition": `attachment; filename="customer-${id}.${csv ? "csv" : "json"}"`,

@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
@@ -41,7 +42,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const form = await request.clone().formData();
+  const form = await readForm(request);
   const intent = form.get("intent");
   const user = await requirePermission(
     request,
@@ -81,7 +82,10 @@ export async function action({ request, params }: Route.ActionArgs) {
     void user;
     return { intent, result: s.reply({ resetForm: true }), saved: true };
   }
-  return data({ intent: null, result: null }, { status: 400 });
+  return data(
+    { intent: null, result: null, message: "That action was not understood." },
+    { status: 400 },
+  );
 }
 
 type ActionResult = Route.ComponentProps["actionData"];

@@ -1,3 +1,5 @@
+import { readQuery } from "~/lib/http/text";
+import { readForm } from "~/lib/http/body";
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, redirect } from "react-router";
@@ -13,14 +15,15 @@ import { getDb } from "~/lib/db.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "customers:read");
-  const q = new URL(request.url).searchParams.get("q") ?? "";
+  const q = readQuery(request).get("q") ?? "";
   const rows = await searchCustomers(getDb(), q);
   return { q, rows, canEdit: can(user.role, "customers:edit") };
 }
 
 export async function action({ request }: Route.ActionArgs) {
+  const form = await readForm(request);
   await requirePermission(request, "customers:edit");
-  const submission = parseWithZod(await request.formData(), { schema: CustomerSchema });
+  const submission = parseWithZod(form, { schema: CustomerSchema });
   if (submission.status !== "success") return data({ result: submission.reply() }, { status: 400 });
   const id = await createCustomer(getDb(), submission.value);
   return redirect(`/customers/${id}`);

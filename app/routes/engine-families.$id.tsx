@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { data, Form, useNavigation } from "react-router";
 import type { Route } from "./+types/engine-families.$id";
 import { FamilyForm } from "~/components/engine-families/family-form";
@@ -24,12 +25,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
+  const formData = await readForm(request);
   const user = await requirePermission(request, "families:edit");
   const id = requireIdParam(params);
   const db = getDb();
   const family = await getFamily(db, id);
   if (!family) throw data("Not found", { status: 404 });
-  const formData = await request.formData();
   if (formData.get("intent") === "archive" || formData.get("intent") === "restore") {
     const input = {
       name: family.name,

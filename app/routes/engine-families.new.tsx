@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { data, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/engine-families.new";
 import { FamilyForm } from "~/components/engine-families/family-form";
@@ -12,8 +13,9 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
+  const form = await readForm(request);
   const user = await requirePermission(request, "families:edit");
-  const out = await saveFamilyForm(getDb(), await request.formData(), user.id);
+  const out = await saveFamilyForm(getDb(), form, user.id);
   if (!out.ok) return data({ result: out.result }, { status: 400 });
   return redirect(`/engine-families/${out.id}`);
 }

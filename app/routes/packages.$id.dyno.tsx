@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { useMemo, useState } from "react";
 import { data, Link, useFetcher } from "react-router";
 import { z } from "zod";
@@ -41,9 +42,10 @@ const Intent = z.discriminatedUnion("intent", [
 ]);
 
 export async function action({ request, params }: Route.ActionArgs) {
+  const form = await readForm(request);
   const user = await requireRole(request, "owner", "builder", "service_writer");
   const packageId = requireIdParam(params);
-  const parsed = Intent.safeParse(Object.fromEntries(await request.formData()));
+  const parsed = Intent.safeParse(Object.fromEntries(form));
   if (!parsed.success) return data({ ok: false, message: "Unknown change." }, { status: 400 });
   const db = getDb();
   const a = parsed.data;

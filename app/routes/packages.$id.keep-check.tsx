@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
@@ -10,7 +11,7 @@ import { PageHeader } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth/auth.server";
 import { can } from "~/lib/auth/permissions";
 import { getDb } from "~/lib/db.server";
-import { requireIdParam } from "~/lib/http/ids";
+import { parseId, requireIdParam } from "~/lib/http/ids";
 import {
   clearOverride,
   computeKeepCheck,
@@ -54,10 +55,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
+  const form = await readForm(request);
   const user = await requirePermission(request, "keepcheck:edit");
   const { check } = await load(request, params);
   const db = getDb();
-  const form = await request.formData();
   const intent = form.get("intent");
   if (intent === "done") {
     await markChecked(db, check, user.id);
@@ -69,7 +70,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     return data(
       {
         intent,
-        bikePartId: Number(form.get("bikePartId")) || null,
+        bikePartId: parseId(form.get("bikePartId")),
         error: s.reply().error ?? null,
         saved: null,
       },

@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 // A build photo's changes: on or off the spec sheet, or removed (the builder and owner).
 import { data, redirect } from "react-router";
 import { z } from "zod";
@@ -13,10 +14,11 @@ const Intent = z.discriminatedUnion("intent", [
 ]);
 
 export async function action({ request, params }: Route.ActionArgs) {
+  const form = await readForm(request);
   await requireRole(request, "owner", "builder");
   const packageId = requireIdParam(params);
   const photoId = requireIdParam(params, "photoId");
-  const parsed = Intent.safeParse(Object.fromEntries(await request.formData()));
+  const parsed = Intent.safeParse(Object.fromEntries(form));
   if (!parsed.success) return data({ ok: false, message: "Unknown change." }, { status: 400 });
   const db = getDb();
   const done =

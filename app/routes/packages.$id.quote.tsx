@@ -1,3 +1,5 @@
+import { readQuery } from "~/lib/http/text";
+import { readForm } from "~/lib/http/body";
 import { getFormProps, useForm, type SubmissionResult } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, useActionData, useNavigation } from "react-router";
@@ -49,7 +51,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     listPayments(db, id),
     listCustomerMessages(db, id),
   ]);
-  const shown = new URL(request.url).searchParams.get("version");
+  const shown = readQuery(request).get("version");
   return {
     header,
     priced,
@@ -70,10 +72,10 @@ type ActionData =
   | { form: "sent"; message: string; ok: true };
 
 export async function action({ request, params }: Route.ActionArgs) {
+  const formData = await readForm(request);
   const user = await requirePermission(request, "prices:read");
   const id = requireIdParam(params);
   const db = getDb();
-  const formData = await request.formData();
   const intent = String(formData.get("intent") ?? "");
   if (intent === "refund") {
     await requirePermission(request, "deposits:refund");

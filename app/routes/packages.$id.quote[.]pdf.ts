@@ -1,3 +1,4 @@
+import { readQuery } from "~/lib/http/text";
 import { data } from "react-router";
 import type { Route } from "./+types/packages.$id.quote[.]pdf";
 import { requirePermission } from "~/lib/auth/auth.server";
@@ -13,7 +14,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   await requirePermission(request, "prices:read");
   const id = requireIdParam(params);
   const db = getDb();
-  const wanted = new URL(request.url).searchParams.get("version");
+  const wanted = readQuery(request).get("version");
   const versions = await listVersions(db, id);
   const v = wanted === null ? versions[0] : versions.find((x) => String(x.number) === wanted);
   const sheet = await loadSheet(db, id);

@@ -1,3 +1,5 @@
+import { readQuery } from "~/lib/http/text";
+import { readForm } from "~/lib/http/body";
 import { getFormProps, useForm, type SubmissionResult } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, redirect, useActionData, useNavigation } from "react-router";
@@ -58,7 +60,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     .orderBy("created_at", "desc")
     .executeTakeFirst();
   const paid = payment ? ["paid", "partly_refunded", "refunded"].includes(payment.status) : false;
-  const url = new URL(request.url);
+  const query = readQuery(request);
   return data(
     {
       problem: null,
@@ -84,7 +86,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
         declined: payment?.status === "declined",
       },
       ...contact,
-      deposit: url.searchParams.get("deposit"),
+      deposit: query.get("deposit"),
       paid,
     },
     { headers: NO_STORE },
@@ -95,11 +97,11 @@ type ActionData = { result?: SubmissionResult<string[]>; message?: string; ok?: 
 
 export async function action({ request, params }: Route.ActionArgs) {
   requireSameOrigin(request);
+  const formData = await readForm(request);
   const db = getDb();
   const check = await checkQuoteLink(db, params.token);
   if (!check.ok)
     return data<ActionData>({ ok: false, message: LINK_PROBLEMS[check.reason] }, { status: 410 });
-  const formData = await request.formData();
   const intent = formData.get("intent");
   if (intent === "changes") {
     const submission = parseWithZod(formData, { schema: MessageSchema });

@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/requests.$id";
@@ -67,6 +68,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
+  const formData = await readForm(request);
   const user = await requirePermission(request, "requests:edit");
   const id = requireIdParam(params);
   const db = getDb();
@@ -76,7 +78,6 @@ export async function action({ request, params }: Route.ActionArgs) {
     .where("id", "=", id)
     .executeTakeFirst();
   if (!exists) throw data("Not found", { status: 404 });
-  const formData = await request.formData();
   const intent = formData.get("intent");
   if (intent === "status") {
     const submission = parseWithZod(formData, { schema: StatusSchema });
@@ -116,7 +117,10 @@ export async function action({ request, params }: Route.ActionArgs) {
       );
     return redirect(`/packages/${out.packageId}`);
   }
-  return data({ intent: null, result: null }, { status: 400 });
+  return data(
+    { intent: null, result: null, message: "That action was not understood." },
+    { status: 400 },
+  );
 }
 
 export default function RequestPage({ loaderData, actionData }: Route.ComponentProps) {

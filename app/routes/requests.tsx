@@ -1,3 +1,4 @@
+import { readQuery } from "~/lib/http/text";
 import { Form, Link } from "react-router";
 import type { Route } from "./+types/requests";
 import { ageText, RequestStatusBadge } from "~/components/requests/request-status";
@@ -10,16 +11,16 @@ import { REQUEST_STATUSES, type RequestStatus } from "../../db/schema/requests";
 
 export async function loader({ request }: Route.LoaderArgs) {
   await requirePermission(request, "requests:read");
-  const url = new URL(request.url);
-  const rawStatus = url.searchParams.get("status") ?? "open";
+  const query = readQuery(request);
+  const rawStatus = query.get("status") ?? "open";
   const status =
     rawStatus === "all"
       ? null
       : rawStatus === "open" || (REQUEST_STATUSES as readonly string[]).includes(rawStatus)
         ? (rawStatus as RequestStatus | "open")
         : "open";
-  const sort: RequestSort = url.searchParams.get("sort") === "time_frame" ? "time_frame" : "age";
-  const dir = url.searchParams.get("dir") === "desc" ? "desc" : "asc";
+  const sort: RequestSort = query.get("sort") === "time_frame" ? "time_frame" : "age";
+  const dir = query.get("dir") === "desc" ? "desc" : "asc";
   const rows = await listRequests(getDb(), { status, sort, dir });
   return { rows, status: status ?? "all", sort, dir, now: Date.now() };
 }

@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { getFormProps, getInputProps, useForm, type SubmissionResult } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { sql } from "kysely";
@@ -85,9 +86,9 @@ export async function loader({ request }: Route.LoaderArgs) {
 type ActionData = { form: string; result: SubmissionResult<string[]> };
 
 export async function action({ request }: Route.ActionArgs) {
+  const formData = await readForm(request);
   const user = await requirePermission(request, "jobs:edit");
   const db = getDb();
-  const formData = await request.formData();
   const intent = formData.get("intent");
   if (intent === "retire") {
     const id = z.coerce.number().int().positive().max(2147483647).safeParse(formData.get("id"));

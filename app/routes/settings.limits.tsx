@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, useNavigation } from "react-router";
@@ -33,8 +34,9 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
+  const form = await readForm(request);
   const me = await requirePermission(request, "limits:edit");
-  const submission = parseWithZod(await request.formData(), { schema: LimitsSchema });
+  const submission = parseWithZod(form, { schema: LimitsSchema });
   if (submission.status !== "success")
     return data({ result: submission.reply(), done: null }, { status: 400 });
   const changed = await saveShopLimits(getDb(), submission.value as unknown as ShopLimits, me.id);

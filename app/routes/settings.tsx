@@ -1,3 +1,4 @@
+import { readForm } from "~/lib/http/body";
 import { getFormProps, getInputProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, useNavigation } from "react-router";
@@ -29,8 +30,9 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
+  const form = await readForm(request);
   const me = await requirePermission(request, "rates:edit");
-  const submission = parseWithZod(await request.formData(), { schema: ShopSettingsSchema });
+  const submission = parseWithZod(form, { schema: ShopSettingsSchema });
   if (submission.status !== "success")
     return data({ result: submission.reply(), saved: null }, { status: 400 });
   const n = await saveShopSettings(getDb(), submission.value, me.id);

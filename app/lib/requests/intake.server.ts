@@ -1,7 +1,7 @@
 // A rider's build request: the body is read with a size limit and refused when it is not
 // plain form text; one address may send a few per hour; a stored request queues the
 // shop's mail and the rider's confirmation in the same transaction.
-import { data } from "react-router";
+import { readForm } from "../http/body";
 
 import type { Db } from "../db.server";
 import { env } from "../env.server";
@@ -18,42 +18,15 @@ import { MAX_BODY_BYTES, partLines, type BuildRequestInput } from "./request-for
 export const MAX_REQUESTS_PER_HOUR = 5;
 
 export const BODY_REFUSED =
-  "This form could not be read: it was too long or not plain text. Shorten what you wrote and send it again.";
+  "This form is larger than 16 KB, so it could not be read. Shorten what you wrote and send it again.";
 
-/** The posted form, refusing an over-long body, a non-form body or one with binary bytes. */
+/** The posted form through the shared reader, with the public form's small limit. */
 export async function readFormBody(request: Request): Promise<FormData> {
-  const type = request.headers.get("Content-Type") ?? "";
-  const length = Number(request.headers.get("Content-Length") ?? "0");
-  if (!type.startsWith("application/x-www-form-urlencoded") || length > MAX_BODY_BYTES)
-    throw data(BODY_REFUSED, { status: type ? 413 : 415 });
-  const reader = request.body?.getReader();
-  const chunks: Uint8Array[] = [];
-  let size = 0;
-  if (reader) {
-    for (;;) {
-      const { done, value } = await reader.read();
-      if (done) break;
-      size += value.byteLength;
-      if (size > MAX_BODY_BYTES) {
-        await reader.cancel();
-        throw data(BODY_REFUSED, { status: 413 });
-      }
-      chunks.push(value);
-    }
-  }
-  const bytes = Buffer.concat(chunks);
-  let text: string;
-  try {
-    text = new TextDecoder("utf-8", { fatal: true }).decode(bytes);
-  } catch {
-    throw data(BODY_REFUSED, { status: 400 });
-  }
-  const form = new FormData();
-  for (const [k, v] of new URLSearchParams(text)) {
-    if (v.includes("\u0000") || k.includes("\u0000")) throw data(BODY_REFUSED, { status: 400 });
-    form.append(k, v);
-  }
-  return form;
+  return readForm(request, {
+    limitBytes: MAX_BODY_BYTES,
+    fieldLimit: MAX_BODY_BYTES,
+    tooLarge: BODY_REFUSED,
+  });
 }
 
 /** True when this address already sent the hour's allowance of requests. */
