@@ -3,19 +3,21 @@ import type { Route } from "./+types/packages.$id.sheet";
 import { requirePermission } from "~/lib/auth/auth.server";
 import { getDb } from "~/lib/db.server";
 import { requireIdParam } from "~/lib/http/ids";
+import { listPhotos } from "~/lib/photos/photos.server";
 import { loadSheet } from "~/lib/sheet/load.server";
 
 // The spec sheet: one printable page for the technician (print styles hide the rest).
 export async function loader({ request, params }: Route.LoaderArgs) {
   await requirePermission(request, "packages:read");
   const id = requireIdParam(params);
-  const sheet = await loadSheet(getDb(), id);
+  const [sheet, photos] = await Promise.all([loadSheet(getDb(), id), listPhotos(getDb(), id)]);
   if (!sheet) throw data("No package with this number.", { status: 404 });
-  return { id, sheet };
+  // the build photos the builder chose for the sheet
+  return { id, sheet, photos: photos.filter((p) => p.onSheet) };
 }
 
 export default function SpecSheet({ loaderData }: Route.ComponentProps) {
-  const { id, sheet } = loaderData;
+  const { id, sheet, photos } = loaderData;
   return (
     <main className="sheet mx-auto max-w-4xl bg-white px-6 py-6 text-graphite print:max-w-none print:p-0">
       <p className="flex flex-wrap gap-4 text-sm print:hidden">
@@ -88,6 +90,23 @@ export default function SpecSheet({ loaderData }: Route.ComponentProps) {
               <li key={`c${i}`}>{c}</li>
             ))}
           </ul>
+        </>
+      ) : null}
+      {photos.length ? (
+        <>
+          <h2 className="mt-4 text-lg font-semibold text-ink">Build photos</h2>
+          <div className="mt-1 grid grid-cols-2 gap-2 sm:grid-cols-4 print:grid-cols-4">
+            {photos.map((p) => (
+              <figure key={p.id} className="break-inside-avoid">
+                <img
+                  src={`/files/${p.thumbFileId}`}
+                  alt={p.caption || "Build photo"}
+                  className="w-full rounded border border-steel-200"
+                />
+                {p.caption ? <figcaption className="text-xs">{p.caption}</figcaption> : null}
+              </figure>
+            ))}
+          </div>
         </>
       ) : null}
       <aside className="mt-4 break-inside-avoid rounded border-2 border-amber px-3 py-2 text-sm">
