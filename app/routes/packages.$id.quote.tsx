@@ -34,6 +34,7 @@ const QUOTABLE = ["draft", "quoted"];
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "prices:read");
   const id = requireIdParam(params);
+  const shown = readQuery(request).get("version");
   const db = getDb();
   const header = await getPackageHeader(db, id);
   if (!header || header.isTemplate) throw data("No package with this number.", { status: 404 });
@@ -51,7 +52,6 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     listPayments(db, id),
     listCustomerMessages(db, id),
   ]);
-  const shown = readQuery(request).get("version");
   return {
     header,
     priced,

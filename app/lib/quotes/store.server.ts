@@ -2,6 +2,7 @@
 // to the customer (frozen, with the package revision they price), and the customer's
 // signed link to one version.
 import { createHmac, randomBytes, timingSafeEqual } from "node:crypto";
+import { data } from "react-router";
 import { z } from "zod";
 import type { Db } from "../db.server";
 import { env } from "../env.server";
@@ -114,7 +115,12 @@ export async function getQuoteSettings(db: Db) {
       "time_zone",
     ])
     .orderBy("id")
-    .executeTakeFirstOrThrow();
+    .executeTakeFirst();
+  if (!shop)
+    throw data(
+      "The shop's settings are not saved yet; the owner enters them under Settings before a quote is priced.",
+      { status: 409 },
+    );
   const q = await db
     .selectFrom("quote_settings")
     .select(["supplies_bp", "valid_days"])

@@ -10,13 +10,24 @@ import {
   type FileUpload,
 } from "@mjackson/form-data-parser";
 import { fileTypeFromBuffer } from "file-type";
+import { FIELD_LIMIT_CHARS, readForm } from "../http/body";
+import { controlCharField, controlCharMessage, fieldLabel } from "../http/text";
 
 /** Room for the form's other fields and the multipart framing beside the file. */
 const FORM_OVERHEAD_BYTES = 64 * 1024;
 
 export type ParsedUpload =
   | { ok: true; form: FormData; file: File | null }
-  | { ok: false; status: 400 | 413; message: string };
+  | { ok: false; status: 400 | 413 | 415; message: string };
+
+/** What the shared form reader refused (status and plain message), or null. */
+function refusal(e: unknown): { status: 400 | 413 | 415; message: string } | null {
+  const init = (e as { init?: { status?: number } } | null)?.init;
+  const status = init?.status;
+  if (status === 400 || status === 413 || status === 415)
+    return { status, message: String((e as { data?: unknown }).data) };
+  return null;
+}
 
 export function megabytes(bytes: number): string {
   return `${Math.round(bytes / (1024 * 1024))} MB`;
@@ -34,6 +45,19 @@ export async function parseUpload(
     status: 413 as const,
     message: `The ${what} is larger than ${megabytes(maxBytes)}; nothing was stored.`,
   };
+  const type = (request.headers.get("Content-Type") ?? "").trim();
+  const mime = type.split(";")[0]!.trim().toLowerCase();
+  if (mime !== "multipart/form-data" || !/;\s*boundary=("[^"]+"|[^;\s]+)/i.test(type)) {
+    // no file can be in it: the shared reader refuses it or reads its fields
+    try {
+      const form = await readForm(request);
+      return { ok: true, form, file: null };
+    } catch (e) {
+      const r = refusal(e);
+      if (r) return { ok: false, ...r };
+      throw e;
+    }
+  }
   const declared = Number(request.headers.get("Content-Length"));
   if (Number.isFinite(declared) && declared > maxBytes + FORM_OVERHEAD_BYTES) {
     await request.body?.cancel().catch(() => {});
@@ -50,6 +74,15 @@ export async function parseUpload(
         return upload;
       },
     );
+    for (const [name, value] of form.entries())
+      if (typeof value === "string" && value.length > FIELD_LIMIT_CHARS)
+        return {
+          ok: false,
+          status: 400,
+          message: `The “${fieldLabel(name)}” field is longer than ${FIELD_LIMIT_CHARS.toLocaleString("en-US")} characters; nothing was stored.`,
+        };
+    const bad = controlCharField(form.entries());
+    if (bad !== null) return { ok: false, status: 400, message: controlCharMessage(bad) };
     return { ok: true, form, file };
   } catch (e) {
     if (e instanceof MaxFileSizeExceededError) return tooBig;
