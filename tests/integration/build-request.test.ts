@@ -76,7 +76,6 @@ describe("/build-request", () => {
               phone: "12",
               goals: "",
               bikeYear: "19",
-              name: "Ro\u0007sa",
               consent: "",
             }),
             "10.1.1.1",
@@ -90,7 +89,6 @@ describe("/build-request", () => {
     expect(error.phone).toEqual([PHONE_MESSAGE]);
     expect(error.goals).toEqual(["Tell us what you want the bike to do"]);
     expect(error.bikeYear[0]).toMatch(/^Enter a model year between 1936 and \d{4}$/);
-    expect(error.name).toEqual(["Remove the control characters (type it as plain text)"]);
     expect(error.consent).toEqual(["Tick this so we may contact you about your request"]);
     expect(initialValue.bikeModel).toBe("Longhaul tourer");
     expect(initialValue.currentParts).toBe("big-bore kit two years ago\naftermarket exhaust");
@@ -145,13 +143,24 @@ describe("/build-request", () => {
       body: "name=a%00b",
       headers: { "Content-Type": "application/x-www-form-urlencoded" },
     });
-    expect((await run(() => page.action(args(nul)))).status).toBe(400);
+    const refusedNul = await run(() => page.action(args(nul)));
+    expect(refusedNul.status).toBe(400);
+    expect(refusedNul.value).toBe(
+      "The “name” field contains a control character (such as a NUL byte) that cannot be stored; remove it.",
+    );
+    const bell = await run(() =>
+      page.action(args(postRequest(riderFields(tagOf(), { name: "Ro\u0007sa" }), "10.1.1.6"))),
+    );
+    expect(bell.status).toBe(400);
+    expect(bell.value).toBe(
+      "The “name” field contains a control character (such as a NUL byte) that cannot be stored; remove it.",
+    );
     const json = signedOutRequest("/build-request", {
       method: "POST",
       body: JSON.stringify({ name: "x" }),
       headers: { "Content-Type": "application/json" },
     });
-    expect((await run(() => page.action(args(json)))).status).toBe(413);
+    expect((await run(() => page.action(args(json)))).status).toBe(415);
   });
 
   it(`takes ${MAX_REQUESTS_PER_HOUR} requests an hour from one address, then asks to wait`, async () => {
