@@ -11,7 +11,7 @@ import { PageHeader } from "~/components/ui/page-header";
 import { requirePermission } from "~/lib/auth/auth.server";
 import { can } from "~/lib/auth/permissions";
 import { getDb } from "~/lib/db.server";
-import { parseId, requireIdParam } from "~/lib/http/ids";
+import { parseId, requireIdParam, zId } from "~/lib/http/ids";
 import {
   clearOverride,
   computeKeepCheck,
@@ -24,7 +24,7 @@ import { KEEP_MARKS } from "../../db/schema/requests";
 
 const OverrideSchema = z.object({
   intent: z.literal("override"),
-  bikePartId: z.coerce.number().int().positive(),
+  bikePartId: zId("Pick a part on this bike"),
   mark: z.enum(KEEP_MARKS, { error: "Pick keep, replace or review" }),
   note: z
     .string({ error: "Say why the mark is changed" })
@@ -35,7 +35,7 @@ const OverrideSchema = z.object({
 });
 const ClearSchema = z.object({
   intent: z.literal("clear"),
-  bikePartId: z.coerce.number().int().positive(),
+  bikePartId: zId("Pick a part on this bike"),
 });
 
 async function load(request: Request, params: Record<string, string | undefined>) {

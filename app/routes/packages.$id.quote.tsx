@@ -13,7 +13,7 @@ import { QuoteTable } from "~/components/quotes/quote-table";
 import { requirePermission } from "~/lib/auth/auth.server";
 import { can } from "~/lib/auth/permissions";
 import { getDb } from "~/lib/db.server";
-import { requireIdParam } from "~/lib/http/ids";
+import { requireIdParam, zId } from "~/lib/http/ids";
 import { getPackageHeader } from "~/lib/packages/store.server";
 import { listPayments, refundDeposit } from "~/lib/payments/deposits.server";
 import { AddLineSchema, centsToInput, RemoveLineSchema, TermsSchema } from "~/lib/quotes/forms";
@@ -79,12 +79,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const intent = String(formData.get("intent") ?? "");
   if (intent === "refund") {
     await requirePermission(request, "deposits:refund");
-    const paymentId = z.coerce
-      .number()
-      .int()
-      .positive()
-      .max(2147483647)
-      .safeParse(formData.get("payment"));
+    const paymentId = zId("Choose a deposit to refund.").safeParse(formData.get("payment"));
     if (!paymentId.success)
       return data<ActionData>(
         { form: "refund", ok: false, message: "Choose a deposit to refund." },

@@ -1,4 +1,5 @@
 import { readForm } from "~/lib/http/body";
+import { zId } from "~/lib/http/ids";
 import { getFormProps, getInputProps, useForm, type SubmissionResult } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { sql } from "kysely";
@@ -24,7 +25,7 @@ const CONTROL = /[\u0000-\u001f\u007f]/;
 
 const JobSchema = z.object({
   intent: z.literal("save"),
-  id: z.coerce.number().int().positive().max(2147483647).optional(),
+  id: zId("Choose a job.").optional(),
   name: z
     .string({ error: "Name the job, e.g. Top end." })
     .trim()
@@ -91,7 +92,7 @@ export async function action({ request }: Route.ActionArgs) {
   const db = getDb();
   const intent = formData.get("intent");
   if (intent === "retire") {
-    const id = z.coerce.number().int().positive().max(2147483647).safeParse(formData.get("id"));
+    const id = zId("Choose a job.").safeParse(formData.get("id"));
     if (!id.success)
       return data<ActionData>(
         { form: "retire", result: { status: "error", error: { "": ["Choose a job."] } } },
