@@ -21,7 +21,12 @@ const optionalNumber = (label: string) =>
 
 export const RunFormSchema = z
   .object({
-    label: text(80, "The run's name").pipe(z.string().min(1, "Name the run (e.g. “after cam”).")),
+    label: z
+      .string({ error: "Name the run (e.g. “after cam”)." })
+      .trim()
+      .min(1, "Name the run (e.g. “after cam”).")
+      .max(80, "The run's name is at most 80 characters.")
+      .refine((v) => !CONTROL.test(v), "The run's name may not hold control characters."),
     runDate: z
       .string()
       .regex(/^\d{4}-\d{2}-\d{2}$/, "Pick the run's date.")
