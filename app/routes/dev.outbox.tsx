@@ -34,7 +34,7 @@ export default function Outbox({ loaderData }: Route.ComponentProps) {
           No e-mail has been sent yet.
         </p>
       ) : (
-        <table className="mt-6 w-full border-collapse overflow-hidden rounded border border-steel-200 bg-white text-left text-sm">
+        <table className="mt-6 w-full table-fixed border-collapse overflow-hidden rounded border border-steel-200 bg-white text-left text-sm [&_td]:[overflow-wrap:anywhere]">
           <thead className="bg-steel-100 text-steel-700">
             <tr>
               <th className="px-3 py-2 font-semibold">Received (UTC)</th>
@@ -45,7 +45,7 @@ export default function Outbox({ loaderData }: Route.ComponentProps) {
           <tbody>
             {messages.map((m) => (
               <tr key={m.id} className="border-t border-steel-100">
-                <td className="num whitespace-nowrap px-3 py-2 text-steel-700">
+                <td className="num px-3 py-2 text-steel-700">
                   <When at={m.receivedAt} time />
                 </td>
                 <td className="px-3 py-2">{m.to.join(", ")}</td>

@@ -70,10 +70,14 @@ export default function Packages({ loaderData }: Route.ComponentProps) {
       <Link
         to={qs({ sort: key, dir: nextDir, page: 1 })}
         className="underline decoration-steel-300 hover:text-ink"
-        aria-sort={active ? (nextDir === "asc" ? "descending" : "ascending") : undefined}
       >
         {label}
         {active ? (nextDir === "asc" ? " ↓" : " ↑") : ""}
+        {active ? (
+          <span className="sr-only">
+            {nextDir === "asc" ? " (sorted high to low)" : " (sorted low to high)"}
+          </span>
+        ) : null}
       </Link>
     );
   };

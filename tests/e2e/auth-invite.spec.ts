@@ -17,10 +17,8 @@ test("an invite goes out by e-mail and its link creates the account", async ({ p
   await page.getByRole("button", { name: "Send invite" }).click();
   await expect(page.getByText(`Invite sent to ${email}.`)).toBeVisible();
 
-  await page
-    .getByRole("navigation", { name: "Main" })
-    .getByRole("link", { name: "Outbox" })
-    .click();
+  // the outbox is a local service, listed apart from the shop's own menu
+  await page.getByRole("link", { name: "Outbox" }).filter({ visible: true }).first().click();
   await expect(page).toHaveURL(/\/dev\/outbox$/);
   const row = page.getByRole("row", { name: new RegExp(email.replace(/[.]/g, "\\.")) });
   await expect(async () => {
@@ -39,8 +37,12 @@ test("an invite goes out by e-mail and its link creates the account", async ({ p
   await invitee.getByLabel("Password", { exact: true }).fill("counter-stool-42");
   await invitee.getByLabel("Password again").fill("counter-stool-42");
   await invitee.getByRole("button", { name: "Create my account" }).click();
-  await expect(invitee.getByLabel("Signed in as")).toContainText("Lark Amundsen");
-  await expect(invitee.getByLabel("Signed in as")).toContainText("Service writer");
+  await expect(invitee.getByLabel("Signed in as").filter({ visible: true })).toContainText(
+    "Lark Amundsen",
+  );
+  await expect(invitee.getByLabel("Signed in as").filter({ visible: true })).toContainText(
+    "Service writer",
+  );
 
   await invitee.goto(href!);
   await expect(invitee.getByRole("alert")).toContainText("already been used");

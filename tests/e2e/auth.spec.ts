@@ -18,10 +18,10 @@ for (const person of DEMO_STAFF) {
     await page.getByLabel("Password").fill(DEMO_PASSWORD);
     await page.getByRole("button", { name: "Sign in" }).click();
     await expect(page).toHaveURL(/\/$/);
-    const who = page.getByLabel("Signed in as");
+    const who = page.getByLabel("Signed in as").filter({ visible: true });
     await expect(who).toContainText(person.name);
     await expect(who).toContainText(ROLE_LABEL[person.role]);
-    const nav = page.getByRole("navigation", { name: "Main" });
+    const nav = page.getByRole("navigation", { name: "Main" }).filter({ visible: true });
     await expect(nav.getByRole("link", { name: "Staff" })).toHaveCount(
       person.role === "owner" ? 1 : 0,
     );
@@ -48,7 +48,9 @@ test("a wrong password shows the error and keeps the e-mail filled", async ({ pa
   await page.getByLabel("Password").fill(DEMO_PASSWORD);
   await page.getByRole("button", { name: "Sign in" }).click();
   await expect(page).toHaveURL(/\/$/);
-  await expect(page.getByLabel("Signed in as")).toContainText("Rui Castellane");
+  await expect(page.getByLabel("Signed in as").filter({ visible: true })).toContainText(
+    "Rui Castellane",
+  );
 });
 
 test("after signing in, the visitor lands where they were going", async ({ page }) => {

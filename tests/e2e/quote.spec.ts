@@ -35,7 +35,9 @@ async function anyPackage(): Promise<{ id: number; name: string }> {
       .selectFrom("packages")
       .select(["id", "name"])
       .where("is_template", "=", false)
-      .orderBy("id", "desc")
+      // a delivered package: no other test changes it while this one reads it
+      .where("status", "=", "delivered")
+      .orderBy("id")
       .executeTakeFirstOrThrow();
   } finally {
     await db.destroy();

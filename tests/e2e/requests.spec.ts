@@ -102,11 +102,16 @@ test.describe.serial("build request to keep-check", () => {
       .getByTestId("slot-cylinder")
       .getByRole("combobox")
       .selectOption({ label: "TW-CYL-1048 · Big-bore cylinder pair, 104.8 mm" });
-    await expect(builder.getByTestId("revision")).toHaveText("revision 2");
+    // the builder's edits fold into the one open revision: two edits, both saved
+    await expect(builder.getByTestId("revision-state")).toContainText(
+      "Revision 2 is open · 1 edit",
+    );
     const power = builder.getByLabel("Power in hp");
     await power.fill("150");
     await power.press("Enter");
-    await expect(builder.getByTestId("revision")).toHaveText("revision 3");
+    await expect(builder.getByTestId("revision-state")).toContainText(
+      "Revision 2 is open · 2 edits",
+    );
 
     await writer.goto(`/packages/${packageId}/keep-check`);
     const row = (text: string) => writer.getByTestId("keep-row").filter({ hasText: text });

@@ -120,7 +120,7 @@ export function RevisionList({
               <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
                 <span className="num font-semibold text-ink">Revision {r.revision}</span>
                 <span
-                  className={`rounded px-1.5 text-xs ${open ? "bg-teal text-white" : "bg-steel-100 text-steel-700"}`}
+                  className={`rounded px-1.5 text-xs ${open ? "bg-teal-dark text-white" : "bg-steel-100 text-steel-700"}`}
                 >
                   {open ? "open" : CLOSE_REASON_TEXT[r.closeReason ?? "saved"]}
                 </span>

@@ -7,7 +7,7 @@ export type StatePick = { kind: "revision" | "edit"; number: number };
 
 /** "r3" or a plain "3" is revision 3, "e17" the state right after edit 17; else null. */
 export function parsePick(raw: string | null | undefined): StatePick | null {
-  const m = /^(r|e)?([1-9][0-9]{0,8})$/.exec(raw?.trim() ?? "");
+  const m = /^(r|e)?([1-9][0-9]{0,8})$/.exec(raw ?? "");
   if (!m) return null;
   return { kind: m[1] === "e" ? "edit" : "revision", number: Number(m[2]) };
 }
