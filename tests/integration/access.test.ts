@@ -983,7 +983,15 @@ export const ROWS: Row[] = [
   },
   { path: "/build-request", expect: all("ok") },
   // a post without the page's honeypot stamp gets the thank-you page, and nothing is stored
-  { path: "/build-request", method: "POST", body: { name: "" }, expect: all("redirect") },
+  // a post without the page's stamp is answered as a bot's: the same thank-you page, nothing
+  // stored (a valid request, with its per-address limit: tests/integration/build-request.test.ts)
+  {
+    path: "/build-request",
+    method: "POST",
+    intent: "no-stamp",
+    body: { name: "" },
+    expect: all("redirect"),
+  },
   { path: "/build-request/thanks", expect: all("ok") },
   { path: "/requests", expect: staffOnly("owner", "service_writer") },
   {

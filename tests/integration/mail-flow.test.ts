@@ -293,7 +293,9 @@ describe("the mail queue", () => {
     expect(failed.last_error).toMatch(/ECONNREFUSED/);
 
     catcher = await startMailCatcher({ smtpPort, apiPort, quiet: true });
-    await mailFor(catcher.apiUrl, email, 20_000);
+    // the retry backoff doubles from MAIL_RETRY_DELAY_SECONDS, so the next attempt after
+    // the server is back can take several of them
+    await mailFor(catcher.apiUrl, email, 45_000);
     // once its job has completed, no retry is left that could send it again
     await settled(failed.id);
     expect((await listCaught(catcher.apiUrl)).filter((m) => m.to.includes(email))).toHaveLength(1);
@@ -303,9 +305,9 @@ describe("the mail queue", () => {
       .selectAll()
       .executeTakeFirstOrThrow();
     expect(sent.status).toBe("sent");
-    // its own bounded waits (a failed attempt ≤ 15 s, the retry ≤ 20 s, the job's completion
+    // its own bounded waits (a failed attempt ≤ 15 s, the retry ≤ 45 s, the job's completion
     // ≤ 20 s) are longer than the default test timeout; the retry backoff is real time
-  }, 60_000);
+  }, 90_000);
 
   it("queues one message per idempotency key", async () => {
     const { queueMail, deliverMessage } = await import("~/lib/mail/mail.server");
