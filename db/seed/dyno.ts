@@ -11,8 +11,8 @@ import { fToC, inHgToKPa } from "../../app/lib/dyno/weather";
 import { storePhoto } from "../../app/lib/photos/photos.server";
 import { listKeys } from "../../app/lib/storage/storage.server";
 
-const DYNO_PACKAGE = "Mountain torque, 117 ci";
-const PHOTO_PACKAGE = "Drag nights, 131 ci with tall bars";
+const DYNO_PACKAGE = "Mountain torque, 113 ci";
+const PHOTO_PACKAGE = "Drag nights, 135 ci with tall bars";
 
 /** An invented sweep: torque (lb·ft) a parabola in rpm with a little ripple; hp = T·rpm/5252. */
 export function demoSweep(peakLbFt: number, peakRpm: number, fall: number, toRpm: number) {
