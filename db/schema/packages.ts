@@ -50,6 +50,11 @@ export interface PackageTable {
   created_by: number | null;
   created_at: Timestamp;
   updated_at: Timestamp;
+  /** When the package was published to the library (null: not published; templates always are). */
+  published_at: Timestamp | null;
+  published_by: number | null;
+  /** The publisher's note to the reader of the library. */
+  publish_note: Generated<string>;
 }
 
 export const CLOSE_REASONS = [
